@@ -1,0 +1,90 @@
+/**
+ * createApp(): the Express application, without listening. Middleware order: request id and logging,
+ * security headers, body parsing, module routers, the console, then 404 and the one error handler.
+ */
+import express from 'express';
+import helmet from 'helmet';
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { pinoHttp } from 'pino-http';
+import type { Db } from './db/client.ts';
+import type { Env } from './env.ts';
+import { errorHandler, notFoundHandler } from './http/error-handler.ts';
+import type { Logger } from './logger.ts';
+import { healthRouter } from './modules/health/health.routes.ts';
+import { problemsRouter } from './modules/problems/problems.routes.ts';
+import { buildOpenApiDocument } from './openapi/document.ts';
+
+export interface AppDeps {
+  env: Env;
+  db: Db;
+  logger: Logger;
+}
+
+const REQUEST_ID = /^[A-Za-z0-9._-]{8,128}$/;
+
+/** Paths owned by the API; everything else that is a GET for a page falls through to the console. */
+const API_PREFIXES = ['/v1', '/console-api', '/problems', '/openapi.json', '/healthz', '/readyz'];
+
+export function createApp(deps: AppDeps) {
+  const { env, db, logger } = deps;
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('query parser', 'simple');
+
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (req, res) => {
+        const incoming = req.headers['x-request-id'];
+        const id = typeof incoming === 'string' && REQUEST_ID.test(incoming) ? incoming : randomUUID();
+        res.setHeader('X-Request-Id', id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === '/healthz' },
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'default-src': ["'self'"],
+          'img-src': ["'self'", 'data:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'font-src': ["'self'", 'data:'],
+          // Served over plain HTTP on loopback; a TLS-terminating proxy in front adds HSTS and upgrades.
+          'upgrade-insecure-requests': null,
+        },
+      },
+      strictTransportSecurity: false,
+    }),
+  );
+  app.use(express.json({ limit: env.BODY_LIMIT_BYTES, type: ['application/json', 'application/*+json'] }));
+
+  app.use(healthRouter(db));
+  app.use(problemsRouter());
+
+  const openApiJson = JSON.stringify(buildOpenApiDocument());
+  app.get('/openapi.json', (_req, res) => {
+    res.type('application/json').send(openApiJson);
+  });
+
+  const distDir = resolve(env.CONSOLE_DIST_DIR);
+  const indexHtml = join(distDir, 'index.html');
+  if (existsSync(indexHtml)) {
+    app.use(express.static(distDir, { index: false, maxAge: '1h', immutable: false }));
+    app.get('/*path', (req, res, next) => {
+      if (API_PREFIXES.some((p) => req.path === p || req.path.startsWith(`${p}/`)) || !req.accepts('html')) {
+        next();
+        return;
+      }
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(indexHtml);
+    });
+  }
+
+  app.use(notFoundHandler);
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,6 @@
+export * from './users.ts';
+export * from './organizations.ts';
+export * from './sessions.ts';
+export * from './api-keys.ts';
+export * from './usage.ts';
+export * from './audit.ts';

@@ -1,0 +1,86 @@
+import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { ZodError } from 'zod';
+import { AppError, problemBody, problemTypes, toJsonPointer, type FieldError, type ProblemSlug } from './problem.ts';
+
+function send(res: Parameters<RequestHandler>[1], status: number, body: object) {
+  res.status(status).type('application/problem+json').send(JSON.stringify(body));
+}
+
+/** Unknown routes: a 404 problem. */
+export const notFoundHandler: RequestHandler = (req, res) => {
+  send(res, 404, problemBody('not-found', `No route matches ${req.method} ${req.path}.`, requestRefs(req)));
+};
+
+function requestRefs(req: Parameters<RequestHandler>[0]) {
+  const id = String(req.id ?? '');
+  return id ? { instance: `/requests/${id}`, requestId: id } : {};
+}
+
+export function zodIssuesToFieldErrors(error: ZodError, location: 'body' | 'query' = 'body'): FieldError[] {
+  return error.issues.map((issue) =>
+    location === 'body'
+      ? { pointer: toJsonPointer(issue.path), detail: issue.message, code: issue.code }
+      : { parameter: issue.path.join('.'), detail: issue.message, code: issue.code },
+  );
+}
+
+export function describeFieldErrors(errors: FieldError[]): string {
+  const where = (e: FieldError) => e.pointer ?? e.parameter ?? e.header ?? '';
+  const listed = errors.slice(0, 5).map((e) => `${where(e)} (${e.detail})`).join('; ');
+  const more = errors.length > 5 ? `; and ${errors.length - 5} more` : '';
+  return `${errors.length} ${errors.length === 1 ? 'field is' : 'fields are'} invalid: ${listed}${more}`;
+}
+
+interface BodyParserError extends Error {
+  type?: string;
+  status?: number;
+  limit?: number;
+}
+
+const bodyParserProblems: Record<string, ProblemSlug> = {
+  'entity.parse.failed': 'malformed-request',
+  'entity.too.large': 'payload-too-large',
+  'encoding.unsupported': 'unsupported-media-type',
+  'charset.unsupported': 'unsupported-media-type',
+  'request.aborted': 'malformed-request',
+  'request.size.invalid': 'malformed-request',
+  'stream.encoding.set': 'internal-error',
+};
+
+/** The one error handler, mounted last: every error becomes RFC 9457 problem details. */
+export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) => {
+  if (res.headersSent) {
+    next(err);
+    return;
+  }
+  const refs = requestRefs(req);
+  if (err instanceof AppError) {
+    for (const [name, value] of Object.entries(err.headers ?? {})) res.setHeader(name, value);
+    send(res, err.status, {
+      ...problemBody(err.slug, err.message, refs),
+      status: err.status,
+      ...(err.errors ? { errors: err.errors } : {}),
+      ...err.extensions,
+    });
+    return;
+  }
+  if (err instanceof ZodError) {
+    const errors = zodIssuesToFieldErrors(err);
+    send(res, 422, { ...problemBody('validation-error', describeFieldErrors(errors), refs), errors });
+    return;
+  }
+  const bodyError = err as BodyParserError;
+  const slug = bodyError?.type ? bodyParserProblems[bodyError.type] : undefined;
+  if (slug && slug !== 'internal-error') {
+    const detail =
+      slug === 'malformed-request'
+        ? `The body is not valid JSON: ${bodyError.message}`
+        : slug === 'payload-too-large'
+          ? `The body is larger than the ${bodyError.limit ?? ''} bytes accepted.`.replace('the  bytes', 'the bytes')
+          : bodyError.message;
+    send(res, problemTypes[slug].status, problemBody(slug, detail, refs));
+    return;
+  }
+  req.log?.error({ err }, 'unhandled error');
+  send(res, 500, problemBody('internal-error', 'Something went wrong on our side. Quote the request id when you report it.', refs));
+};
