@@ -14,6 +14,7 @@ import { errorHandler, notFoundHandler } from './http/error-handler.ts';
 import type { Logger } from './logger.ts';
 import { healthRouter } from './modules/health/health.routes.ts';
 import { problemsRouter } from './modules/problems/problems.routes.ts';
+import { v1Router } from './modules/v1.routes.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
 
 export interface AppDeps {
@@ -64,6 +65,7 @@ export function createApp(deps: AppDeps) {
 
   app.use(healthRouter(db));
   app.use(problemsRouter());
+  app.use('/v1', v1Router());
 
   const openApiJson = JSON.stringify(buildOpenApiDocument());
   app.get('/openapi.json', (_req, res) => {

@@ -1,0 +1,36 @@
+/**
+ * The one way a calculation endpoint is served: parse the JSON body with the shared schema, run the pure
+ * calculator, send `{ data, checks, cautions, basis }`. A CalcError becomes a 422 `calculation-error`
+ * problem. Key checks, metering and rate limits sit in front of these handlers (see the v1 router).
+ */
+import type { Request, RequestHandler } from 'express';
+import type { z } from 'zod';
+import { CalcError } from '#shared/calc/errors.ts';
+import type { CalcOutput } from '#shared/calc/types.ts';
+import { AppError } from '../../http/problem.ts';
+import { parseJsonBody } from '../../http/validate.ts';
+
+/** Runs a calculator, turning its CalcError into a problem. */
+export function runCalc<I, O>(compute: (input: I) => CalcOutput<O>, input: I): CalcOutput<O> {
+  try {
+    return compute(input);
+  } catch (error) {
+    if (error instanceof CalcError) {
+      throw new AppError('calculation-error', error.message, {
+        errors: [{ detail: error.message, code: error.code, ...(error.pointer ? { pointer: error.pointer } : {}) }],
+      });
+    }
+    throw error;
+  }
+}
+
+export function calcHandler<S extends z.ZodType, O>(
+  schema: S,
+  compute: (input: z.output<S>) => CalcOutput<O>,
+  readInput: (schema: S, req: Request) => z.output<S> = parseJsonBody,
+): RequestHandler {
+  return (req, res) => {
+    const input = readInput(schema, req);
+    res.json(runCalc(compute, input));
+  };
+}
