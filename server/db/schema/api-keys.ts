@@ -27,6 +27,8 @@ export const apiKeys = pgTable(
     lastUsedAt: timestamp({ withTimezone: true }),
     expiresAt: timestamp({ withTimezone: true }),
     revokedAt: timestamp({ withTimezone: true }),
+    /** Set on a rotated key: the key that replaced it (the old one keeps working until expiresAt). */
+    replacedByKeyId: uuid(),
   },
   (t) => [index('api_keys_org_idx').on(t.organizationId)],
 );
