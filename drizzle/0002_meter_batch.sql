@@ -21,11 +21,15 @@ DECLARE
   m bigint;
   w integer;
   v_outcome text;
+  -- Results, column by column (arrays avoid a temporary table and its catalog churn on every batch).
+  r_i integer[] := '{}';
+  r_org uuid[] := '{}';
+  r_key uuid[] := '{}';
+  r_endpoint text[] := '{}';
+  r_outcome text[] := '{}';
+  r_month bigint[] := '{}';
+  r_window integer[] := '{}';
 BEGIN
-  CREATE TEMP TABLE IF NOT EXISTS pg_temp.meter_result (
-    i integer, org uuid, key uuid, endpoint text, outcome text, month_calls bigint, window_calls integer
-  ) ON COMMIT DROP;
-  TRUNCATE pg_temp.meter_result;
 
   FOR g IN
     SELECT (x->>'org')::uuid AS org, max((x->>'quota')::bigint) AS quota, max((x->>'rate')::integer) AS rate
@@ -65,7 +69,13 @@ BEGIN
           w := w + 1;
         END IF;
       END IF;
-      INSERT INTO pg_temp.meter_result VALUES (it.idx, g.org, it.key, it.endpoint, v_outcome, m, w);
+      r_i := r_i || it.idx;
+      r_org := r_org || g.org;
+      r_key := r_key || it.key;
+      r_endpoint := r_endpoint || it.endpoint;
+      r_outcome := r_outcome || v_outcome;
+      r_month := r_month || m;
+      r_window := r_window || w;
     END LOOP;
 
     UPDATE organization_monthly_usage u SET calls = m WHERE u.organization_id = g.org AND u.month = v_month;
@@ -74,16 +84,20 @@ BEGIN
 
   INSERT INTO usage_counters AS c (organization_id, api_key_id, endpoint, day, calls)
     SELECT res.org, res.key, res.endpoint, v_day, count(*)
-    FROM pg_temp.meter_result res WHERE res.outcome = 'ok'
+    FROM unnest(r_org, r_key, r_endpoint, r_outcome) AS res(org, key, endpoint, outcome)
+    WHERE res.outcome = 'ok'
     GROUP BY res.org, res.key, res.endpoint
     ORDER BY res.org, res.key, res.endpoint
   ON CONFLICT (organization_id, api_key_id, endpoint, day) DO UPDATE SET calls = c.calls + excluded.calls;
 
   -- Last use of each key, at most every 30 seconds (saves row churn on hot keys).
   UPDATE api_keys k SET last_used_at = t
-    WHERE k.id IN (SELECT DISTINCT res.key FROM pg_temp.meter_result res WHERE res.outcome = 'ok')
+    WHERE k.id IN (SELECT DISTINCT res.key FROM unnest(r_key, r_outcome) AS res(key, outcome) WHERE res.outcome = 'ok')
       AND (k.last_used_at IS NULL OR k.last_used_at < t - interval '30 seconds');
 
-  RETURN QUERY SELECT res.i, res.outcome, res.month_calls, res.window_calls, v_month, v_window FROM pg_temp.meter_result res ORDER BY res.i;
+  RETURN QUERY
+    SELECT res.i, res.outcome, res.month_calls, res.window_calls, v_month, v_window
+    FROM unnest(r_i, r_outcome, r_month, r_window) AS res(i, outcome, month_calls, window_calls)
+    ORDER BY res.i;
 END;
 $$;
