@@ -8,19 +8,33 @@ import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { pinoHttp } from 'pino-http';
+import type pg from 'pg';
 import type { Db } from './db/client.ts';
 import type { Env } from './env.ts';
 import { errorHandler, notFoundHandler } from './http/error-handler.ts';
 import type { Logger } from './logger.ts';
 import { healthRouter } from './modules/health/health.routes.ts';
 import { problemsRouter } from './modules/problems/problems.routes.ts';
+import { createPlatform, type Platform } from './modules/metering/platform.ts';
+import type { MeteringHooks } from './modules/metering/metering.ts';
 import { v1Router } from './modules/v1.routes.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
 
 export interface AppDeps {
   env: Env;
   db: Db;
+  pool: pg.Pool;
   logger: Logger;
+  meteringHooks?: MeteringHooks;
+}
+
+declare global {
+  namespace Express {
+    interface Application {
+      /** This instance's metering platform; closed by the server on shutdown. */
+      platform?: Platform;
+    }
+  }
 }
 
 const REQUEST_ID = /^[A-Za-z0-9._-]{8,128}$/;
@@ -29,8 +43,11 @@ const REQUEST_ID = /^[A-Za-z0-9._-]{8,128}$/;
 const API_PREFIXES = ['/v1', '/console-api', '/problems', '/openapi.json', '/healthz', '/readyz'];
 
 export function createApp(deps: AppDeps) {
-  const { env, db, logger } = deps;
+  const { env, db, pool, logger } = deps;
   const app = express();
+  const platform = createPlatform({ env, db, pool, logger, hooks: deps.meteringHooks });
+  app.platform = platform;
+  const openApiDocument = buildOpenApiDocument();
   app.disable('x-powered-by');
   app.set('query parser', 'simple');
 
@@ -65,9 +82,9 @@ export function createApp(deps: AppDeps) {
 
   app.use(healthRouter(db));
   app.use(problemsRouter());
-  app.use('/v1', v1Router());
+  app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {} }));
 
-  const openApiJson = JSON.stringify(buildOpenApiDocument());
+  const openApiJson = JSON.stringify(openApiDocument);
   app.get('/openapi.json', (_req, res) => {
     res.type('application/json').send(openApiJson);
   });

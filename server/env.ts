@@ -25,6 +25,10 @@ export const EnvSchema = z.object({
     .regex(/^ohs_srv_[A-Za-z0-9]{32,}$/, 'must be "ohs_srv_" followed by at least 32 characters from [A-Za-z0-9]')
     .optional(),
   OHMSTEAD_DEMO_HIGH_LIMITS: bool,
+  /** Secret for the keyed hash under which API keys are stored (required in production). */
+  OHMSTEAD_KEY_HASH_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
+  /** How long a key lookup is cached per instance, ms: a revoked key stops working within this time. */
+  API_KEY_CACHE_TTL_MS: z.coerce.number().int().min(0).max(60_000).default(3_000),
   /** Port of the project's own PostgreSQL cluster (used when DATABASE_URL is not set). */
   OHMSTEAD_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
   /** Time allowed for in-flight requests to finish on shutdown, in milliseconds. */

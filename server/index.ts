@@ -18,7 +18,7 @@ export interface RunningServer {
 export async function startServer(env: Env = getEnv()): Promise<RunningServer> {
   const logger = createLogger(env.LOG_LEVEL);
   const { db, pool } = createDb(env.DATABASE_URL);
-  const app = createApp({ env, db, logger });
+  const app = createApp({ env, db, pool, logger });
   const server = app.listen(env.PORT, env.HOST);
   await new Promise<void>((resolve, reject) => {
     server.once('listening', resolve);
@@ -38,6 +38,7 @@ export async function startServer(env: Env = getEnv()): Promise<RunningServer> {
       const timer = setTimeout(() => server.closeAllConnections(), env.SHUTDOWN_GRACE_MS);
       await done;
       clearTimeout(timer);
+      await app.platform?.close();
       await pool.end();
       logger.info('stopped');
     })();

@@ -12,6 +12,7 @@ export const problemTypes = {
   unauthorized: { status: 401, title: 'Authentication is required' },
   forbidden: { status: 403, title: 'Not allowed' },
   conflict: { status: 409, title: 'The request conflicts with the current state' },
+  'idempotency-key-reused': { status: 422, title: 'The Idempotency-Key was used with a different request' },
   'rate-limited': { status: 429, title: 'Too many requests' },
   'quota-exceeded': { status: 429, title: 'Monthly quota exhausted' },
   'calculation-error': { status: 422, title: 'The inputs describe a situation the model cannot solve' },

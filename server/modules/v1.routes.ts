@@ -1,11 +1,47 @@
 /**
- * The public API, /v1. Each calculation module contributes a router; key authentication, metering and
- * rate limits are applied here, in front of all of them.
+ * The public API, /v1. In front of every module: CORS for embed-key origins, the request log, the route
+ * check (an unknown path is 404 and a wrong method 405 before any key is asked for), API-key
+ * authentication, and for calculations (POST) idempotency and metering. Calculation handlers answer through
+ * `res.locals.sendMetered`. Reference data and usage (GET) need a key but are not metered.
  */
-import { Router } from 'express';
+import { Router, type RequestHandler } from 'express';
+import type { Db } from '../db/client.ts';
+import { AppError } from '../http/problem.ts';
+import { requireApiKey, v1Cors } from './metering/api-auth.ts';
+import type { Platform } from './metering/platform.ts';
+import { usageRouter } from './usage/usage.routes.ts';
 
-export function v1Router() {
+/** Checks the path and method against the routes documented in the OpenAPI document. */
+function knownRoutesOnly(documentedPaths: Record<string, object>): RequestHandler {
+  const routes = new Map<string, Set<string>>();
+  for (const [path, operations] of Object.entries(documentedPaths)) {
+    if (!path.startsWith('/v1/')) continue;
+    routes.set(path.slice(3), new Set(Object.keys(operations).map((m) => m.toUpperCase())));
+  }
+  return (req, _res, next) => {
+    const methods = routes.get(req.path.replace(/\/$/, '') || '/');
+    if (!methods) throw new AppError('not-found', `No route matches ${req.method} ${req.baseUrl}${req.path}.`);
+    if (!methods.has(req.method) && req.method !== 'OPTIONS') {
+      throw new AppError('method-not-allowed', `${req.baseUrl}${req.path} accepts ${[...methods].join(', ')}, not ${req.method}.`, {
+        headers: { Allow: [...methods].join(', ') },
+      });
+    }
+    next();
+  };
+}
+
+export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Record<string, object> }) {
+  const { db, platform } = deps;
   const router = Router();
+  router.use(v1Cors(platform.resolver));
+  router.use(platform.requestLog.middleware());
+  router.use(knownRoutesOnly(deps.documentedPaths));
+  const calculationKey = requireApiKey(platform.resolver, { calculation: true });
+  const referenceKey = requireApiKey(platform.resolver, { calculation: false });
+  router.use((req, res, next) => (req.method === 'POST' ? calculationKey : referenceKey)(req, res, next));
+  router.post('/*path', platform.metering.idempotency, platform.metering.meterCalls);
+
+  router.use(usageRouter(db));
   // Calculation and reference modules, one line each:
   return router;
 }

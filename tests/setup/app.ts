@@ -7,6 +7,10 @@ import { createLogger } from '../../server/logger.ts';
 export function createTestApp(overrides: Record<string, string> = {}) {
   const env = parseEnv({ ...process.env, CONSOLE_DIST_DIR: '.data/no-console', ...overrides });
   const { db, pool } = createDb(env.DATABASE_URL, { max: 4 });
-  const app = createApp({ env, db, logger: createLogger(env.LOG_LEVEL) });
-  return { app, db, pool, env };
+  const app = createApp({ env, db, pool, logger: createLogger(env.LOG_LEVEL) });
+  const close = async () => {
+    await app.platform?.close();
+    await pool.end();
+  };
+  return { app, db, pool, env, close };
 }

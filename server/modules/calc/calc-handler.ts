@@ -1,9 +1,10 @@
 /**
  * The one way a calculation endpoint is served: parse the JSON body with the shared schema, run the pure
  * calculator, send `{ data, checks, cautions, basis }`. A CalcError becomes a 422 `calculation-error`
- * problem. Key checks, metering and rate limits sit in front of these handlers (see the v1 router).
+ * problem. Key checks, metering and rate limits sit in front of these handlers (see the v1 router); the
+ * answer goes out through `sendCalcResult`, which counts the call before it is answered.
  */
-import type { Request, RequestHandler } from 'express';
+import type { Request, RequestHandler, Response } from 'express';
 import type { z } from 'zod';
 import { CalcError } from '#shared/calc/errors.ts';
 import type { CalcOutput } from '#shared/calc/types.ts';
@@ -29,8 +30,14 @@ export function calcHandler<S extends z.ZodType, O>(
   compute: (input: z.output<S>) => CalcOutput<O>,
   readInput: (schema: S, req: Request) => z.output<S> = parseJsonBody,
 ): RequestHandler {
-  return (req, res) => {
+  return async (req, res) => {
     const input = readInput(schema, req);
-    res.json(runCalc(compute, input));
+    await sendCalcResult(res, runCalc(compute, input));
   };
+}
+
+/** Sends a calculation result: metered (counted, then answered with RateLimit headers) behind the v1 router. */
+export async function sendCalcResult(res: Response, body: unknown): Promise<void> {
+  if (!res.locals.sendMetered) throw new Error('calculation handlers must be mounted behind the metering middleware');
+  await res.locals.sendMetered(body);
 }

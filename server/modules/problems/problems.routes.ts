@@ -11,6 +11,7 @@ const explanations: Record<ProblemSlug, string> = {
   'method-not-allowed': 'The path exists but not with this HTTP method.',
   unauthorized: 'Send a valid API key in the Authorization header: "Authorization: Bearer <key>".',
   forbidden: 'The key or user is valid but may not do this (role, key kind or origin).',
+  'idempotency-key-reused': 'An Idempotency-Key identifies one request. Retries must repeat the same method, path and body; a new request needs a new key.',
   conflict: 'The request conflicts with the current state, for example a repeated Idempotency-Key still in flight.',
   'rate-limited': 'Too many calls in the current minute. Wait for the number of seconds in Retry-After.',
   'quota-exceeded': "The organization's monthly call quota is used up. It resets at the start of the next UTC month, or raise the plan.",

@@ -1,0 +1,85 @@
+/**
+ * Resolves a presented API key to its row and organization limits, with a short per-instance cache
+ * (API_KEY_CACHE_TTL_MS, default 3 s): a revoked or expired key stops working on every instance within
+ * that time, while a hot key costs one HMAC and one map lookup per call. Unknown keys are cached too
+ * (negatively, bounded), so garbage keys cannot turn into one query per request.
+ */
+import { effectiveLimits, type PlanId } from '#shared/plans.ts';
+import type { Db } from '../../db/client.ts';
+import { hashApiKey, hashesEqual, type ApiKeyKind } from './key-format.ts';
+import { findKeyWithOrganizationByHash, listActiveEmbedOrigins } from './keys.queries.ts';
+
+export interface ResolvedKey {
+  id: string;
+  organizationId: string;
+  kind: ApiKeyKind;
+  name: string;
+  allowedOrigins: string[];
+  revokedAt: Date | null;
+  expiresAt: Date | null;
+  planId: PlanId;
+  monthlyQuotaCalls: number;
+  ratePerMinuteCalls: number;
+}
+
+interface Entry {
+  value: ResolvedKey | null;
+  fetchedAtMs: number;
+}
+
+const MAX_ENTRIES = 10_000;
+
+export class KeyResolver {
+  private cache = new Map<string, Entry>();
+  private origins: { value: Set<string>; fetchedAtMs: number } | undefined;
+
+  constructor(
+    private readonly db: Db,
+    private readonly hashSecret: string,
+    private readonly ttlMs: number,
+    private readonly clock: () => number = Date.now,
+  ) {}
+
+  async resolve(presentedKey: string): Promise<ResolvedKey | null> {
+    const hash = hashApiKey(presentedKey, this.hashSecret);
+    const now = this.clock();
+    const hit = this.cache.get(hash);
+    if (hit && now - hit.fetchedAtMs < this.ttlMs) return hit.value;
+    const row = await findKeyWithOrganizationByHash(this.db, hash);
+    // The row was found by its hash; compare again in constant time as the stored-secret check.
+    const value: ResolvedKey | null =
+      row && hashesEqual(row.key.keyHash, hash)
+        ? {
+            id: row.key.id,
+            organizationId: row.key.organizationId,
+            kind: row.key.kind,
+            name: row.key.name,
+            allowedOrigins: row.key.allowedOrigins,
+            revokedAt: row.key.revokedAt,
+            expiresAt: row.key.expiresAt,
+            ...(() => {
+              const limits = effectiveLimits(row.organization);
+              return { planId: limits.plan.id, monthlyQuotaCalls: limits.monthlyQuotaCalls, ratePerMinuteCalls: limits.ratePerMinuteCalls };
+            })(),
+          }
+        : null;
+    if (this.cache.size >= MAX_ENTRIES) this.cache.clear();
+    this.cache.set(hash, { value, fetchedAtMs: now });
+    return value;
+  }
+
+  /** Origins listed on any active embed key (for CORS preflights, which carry no key). */
+  async embedOrigins(): Promise<Set<string>> {
+    const now = this.clock();
+    if (this.origins && now - this.origins.fetchedAtMs < this.ttlMs) return this.origins.value;
+    const value = new Set(await listActiveEmbedOrigins(this.db));
+    this.origins = { value, fetchedAtMs: now };
+    return value;
+  }
+
+  /** Drops cached entries (after a change made by this instance, so it applies here at once). */
+  invalidate(): void {
+    this.cache.clear();
+    this.origins = undefined;
+  }
+}
