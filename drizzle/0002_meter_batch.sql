@@ -11,6 +11,7 @@
 CREATE OR REPLACE FUNCTION meter_batch(items jsonb, at timestamptz DEFAULT NULL)
 RETURNS TABLE (i integer, outcome text, month_calls bigint, window_calls integer, month_start date, window_start timestamptz)
 LANGUAGE plpgsql AS $$
+#variable_conflict use_column
 DECLARE
   t timestamptz := coalesce(at, now());
   v_month date := (date_trunc('month', t, 'UTC') AT TIME ZONE 'UTC')::date;
