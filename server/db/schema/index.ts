@@ -5,3 +5,6 @@ export * from './api-keys.ts';
 export * from './usage.ts';
 export * from './audit.ts';
 export * from './metering.ts';
+export * from './email-tokens.ts';
+export * from './invitations.ts';
+export * from './auth-throttles.ts';
