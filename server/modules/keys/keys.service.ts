@@ -34,7 +34,17 @@ export function normalizeOrigin(value: string): string {
   return url.origin;
 }
 
-export async function createKey(db: Db, hashSecret: string, input: CreateKeyInput, at = new Date()): Promise<{ key: ApiKeyRow; secret: string }> {
+/** Runs inside the change's transaction (audit entries), so the log never records a rolled-back change. */
+type InTransaction<T> = (tx: Tx, result: T) => Promise<void>;
+type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+
+export async function createKey(
+  db: Db,
+  hashSecret: string,
+  input: CreateKeyInput,
+  at = new Date(),
+  inTransaction?: InTransaction<{ key: ApiKeyRow }>,
+): Promise<{ key: ApiKeyRow; secret: string }> {
   const origins = [...new Set((input.allowedOrigins ?? []).map(normalizeOrigin))];
   if (input.kind === 'embed' && origins.length === 0) {
     throw new AppError('validation-error', 'An embed key needs at least one allowed origin (the sites it may be used from).', {
@@ -69,16 +79,28 @@ export async function createKey(db: Db, hashSecret: string, input: CreateKeyInpu
       allowedOrigins: origins,
       expiresAt: input.expiresAt ?? null,
     });
+    await inTransaction?.(tx, { key });
     return { key, secret };
   });
 }
 
-export async function revokeKey(db: Db, organizationId: string, keyId: string, at = new Date()): Promise<ApiKeyRow> {
-  const row = await revokeKeyRow(db, organizationId, keyId, at);
-  if (row) return row;
-  const existing = await findKey(db, organizationId, keyId);
-  if (!existing) throw new AppError('not-found', 'No such key in this organization.');
-  throw new AppError('conflict', 'This key is already revoked.');
+export async function revokeKey(
+  db: Db,
+  organizationId: string,
+  keyId: string,
+  at = new Date(),
+  inTransaction?: InTransaction<{ key: ApiKeyRow }>,
+): Promise<ApiKeyRow> {
+  return db.transaction(async (tx) => {
+    const row = await revokeKeyRow(tx, organizationId, keyId, at);
+    if (row) {
+      await inTransaction?.(tx, { key: row });
+      return row;
+    }
+    const existing = await findKey(tx, organizationId, keyId);
+    if (!existing) throw new AppError('not-found', 'No such key in this organization.');
+    throw new AppError('conflict', 'This key is already revoked.');
+  });
 }
 
 /**
@@ -90,6 +112,7 @@ export async function rotateKey(
   hashSecret: string,
   input: { organizationId: string; keyId: string; actorUserId: string | null; overlapS: number },
   at = new Date(),
+  inTransaction?: InTransaction<{ key: ApiKeyRow; previous: ApiKeyRow }>,
 ): Promise<{ key: ApiKeyRow; secret: string; previous: ApiKeyRow }> {
   return db.transaction(async (tx) => {
     const old = await findKey(tx, input.organizationId, input.keyId);
@@ -109,6 +132,7 @@ export async function rotateKey(
     const overlapEnds = new Date(at.getTime() + input.overlapS * 1000);
     await markKeyReplaced(tx, old.id, key.id, overlapEnds);
     const previous = (await findKey(tx, input.organizationId, old.id))!;
+    await inTransaction?.(tx, { key, previous });
     return { key, secret, previous };
   });
 }
