@@ -66,7 +66,9 @@ export const ChargeTimeDataSchema = z
     totalHours: z.number().meta({ example: 4.48 }),
     constantCurrentHours: z.number(),
     taperHours: z.number().meta({ description: 'Time in the constant-voltage taper, h.' }),
-    chargeCurrentA: z.number().meta({ description: 'Current into the pack at the start of the charge, A.' }),
+    chargeCurrentA: z
+      .number()
+      .meta({ description: 'The constant current at the start: the sources’ current capped by the pack’s maxChargeA, A. A charge that starts inside the taper draws less (see profile).' }),
     chargeCRate: z.number().meta({ description: 'chargeCurrentA ÷ capacityAh, 1/h.' }),
     limitedBy: z.enum(['source', 'pack_limit']).meta({ description: 'What set the constant current at the start: the sources, or the pack’s maxChargeA.' }),
     sourceCurrentA: z.number().meta({ description: 'What the sources together could deliver at the start, A.' }),

@@ -124,17 +124,25 @@ export interface CcCvRun {
   taperHours: number;
   energyIntoPackWh: number;
   energyFromSourceWh: number;
-  /** State of charge (%) and time (h) at every piece boundary, increasing. */
-  nodes: Array<{ socPct: number; hours: number }>;
+  /** State of charge (%) and time (h) at every piece boundary, increasing; `taper` tells whether the piece ending here was in CV. */
+  nodes: Array<{ socPct: number; hours: number; taper: boolean }>;
+  /** State of charge (%) on the CV line where its current is `currentA` (the inverse of the taper's line). */
+  taperSocAt: (currentA: number) => number;
   /** Current into the pack (A) at a state of charge. */
   currentAt: (socPct: number) => number;
   /** Terminal voltage (V) at a state of charge. */
   voltageAt: (socPct: number) => number;
+  taperTimeConstantH: number;
 }
 
-// 5-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz & Stegun, Table 25.4).
-const GL_X = [0, -0.5384693101056831, 0.5384693101056831, -0.906179845938664, 0.906179845938664];
-const GL_W = [0.5688888888888889, 0.47862867049327786, 0.47862867049327786, 0.23692688505634736, 0.23692688505634736];
+// 5-point Gauss–Legendre nodes and weights on [−1, 1], from their closed forms (Abramowitz & Stegun 25.4.29,
+// Table 25.4): x = 0, ±⅓√(5 ∓ 2√(10/7)); w = 128/225, (322 ± 13√70)/900.
+const GL_X1 = Math.sqrt(5 - 2 * Math.sqrt(10 / 7)) / 3;
+const GL_X2 = Math.sqrt(5 + 2 * Math.sqrt(10 / 7)) / 3;
+const GL_W1 = (322 + 13 * Math.sqrt(70)) / 900;
+const GL_W2 = (322 - 13 * Math.sqrt(70)) / 900;
+const GL_X = [0, -GL_X1, GL_X1, -GL_X2, GL_X2];
+const GL_W = [128 / 225, GL_W1, GL_W1, GL_W2, GL_W2];
 
 function gaussLegendre(f: (x: number) => number, a: number, b: number): number {
   const half = (b - a) / 2;
@@ -217,7 +225,7 @@ export function simulateCcCv(model: CcCvModel, fromPct: number, toPct: number): 
   let cvHours = 0;
   let energyIntoPackWh = 0;
   let energyFromSourceWh = 0;
-  const nodes: CcCvRun['nodes'] = [{ socPct: bounds[0]!, hours: 0 }];
+  const nodes: CcCvRun['nodes'] = [{ socPct: bounds[0]!, hours: 0, taper: false }];
   for (let k = 0; k + 1 < bounds.length; k += 1) {
     const a = bounds[k]!;
     const b = bounds[k + 1]!;
@@ -237,7 +245,7 @@ export function simulateCcCv(model: CcCvModel, fromPct: number, toPct: number): 
     // Energy: V·I·dt = V·dQ/η.
     energyIntoPackWh += gaussLegendre((q) => (voltage(q) * ahPerPct) / eta, a, b);
     energyFromSourceWh += gaussLegendre((q) => (voltage(q) * sourceEnergyWeight(q) * ahPerPct) / eta, a, b);
-    nodes.push({ socPct: b, hours });
+    nodes.push({ socPct: b, hours, taper: inTaper });
   }
   return {
     totalHours: hours,
@@ -248,10 +256,16 @@ export function simulateCcCv(model: CcCvModel, fromPct: number, toPct: number): 
     nodes,
     currentAt: current,
     voltageAt: voltage,
+    taperSocAt: (currentA) => 100 - ((currentA - model.terminationCurrentA) * eta * tau) / ahPerPct,
+    taperTimeConstantH: tau,
   };
 }
 
-/** Resamples a run at evenly spaced times (at most MAX_PROFILE_POINTS), interpolating the state of charge. */
+/**
+ * Resamples a run at evenly spaced times (at most MAX_PROFILE_POINTS). Inside a taper piece the state of charge
+ * follows from the exponential decay exactly; inside a CC piece it is interpolated linearly in time (exact for
+ * a constant current, and the pieces are at most 1/400 of the range wide).
+ */
 export function chargeProfile(run: CcCvRun, maxPoints = MAX_PROFILE_POINTS): ChargeTimeData['profile'] {
   const n = Math.max(2, Math.min(maxPoints, run.nodes.length));
   const profile: ChargeTimeData['profile'] = [];
@@ -261,7 +275,11 @@ export function chargeProfile(run: CcCvRun, maxPoints = MAX_PROFILE_POINTS): Cha
     while (k + 2 < run.nodes.length && run.nodes[k + 1]!.hours < t) k += 1;
     const a = run.nodes[k]!;
     const b = run.nodes[Math.min(k + 1, run.nodes.length - 1)]!;
-    const soc = j === n - 1 ? run.nodes.at(-1)!.socPct : b.hours > a.hours ? a.socPct + ((t - a.hours) / (b.hours - a.hours)) * (b.socPct - a.socPct) : a.socPct;
+    let soc: number;
+    if (j === n - 1) soc = run.nodes.at(-1)!.socPct;
+    else if (!(b.hours > a.hours)) soc = a.socPct;
+    else if (b.taper) soc = run.taperSocAt(run.currentAt(a.socPct) * Math.exp(-(t - a.hours) / run.taperTimeConstantH));
+    else soc = a.socPct + ((t - a.hours) / (b.hours - a.hours)) * (b.socPct - a.socPct);
     profile.push({ minute: t * 60, socPct: soc, currentA: run.currentAt(soc), voltageV: run.voltageAt(soc) });
   }
   return profile;
@@ -309,7 +327,9 @@ export function computeChargeTime(input: ChargeTimeInput): CalcOutput<ChargeTime
     ...(pack.maxChargeA !== undefined ? { maxChargeA: pack.maxChargeA } : {}),
   };
   const run = simulateCcCv(model, fromPct, toPct);
-  const chargeCurrentA = run.currentAt(fromPct);
+  // The constant current the sources and the pack limit set at the start (a charge that starts inside the
+  // taper draws less at once; the profile shows that).
+  const chargeCurrentA = Math.min(sourceCurrentA, pack.maxChargeA ?? Infinity);
   const limitedBy = pack.maxChargeA !== undefined && pack.maxChargeA < sourceCurrentA ? 'pack_limit' : 'source';
   const chargeCRate = chargeCurrentA / ah;
 
@@ -363,7 +383,11 @@ export function computeChargeTime(input: ChargeTimeInput): CalcOutput<ChargeTime
     });
   }
   if (run.taperHours > 0 && run.constantCurrentHours === 0) {
-    checks.push({ code: 'starts_in_taper', level: 'info', message: `At ${fromPct} % the pack is already in the constant-voltage taper for this current.` });
+    checks.push({
+      code: 'starts_in_taper',
+      level: 'info',
+      message: `At ${fromPct} % the pack is already in the constant-voltage taper for ${fmt(chargeCurrentA)} A, so it draws ${fmt(run.currentAt(fromPct))} A from the start.`,
+    });
   }
   if (run.totalHours > 48) {
     checks.push({ code: 'long_charge', level: 'info', message: `The charge takes about ${fmt(run.totalHours)} h; a bigger source would shorten it.` });

@@ -60,6 +60,12 @@ export function computePackCompare(input: PackCompareInput): CalcOutput<PackComp
   // Array.prototype.sort is stable (ES2019), so equal figures keep the order given.
   const ranked = [...evaluated].sort((a, b) => a.figure - b.figure);
   const best = ranked[0]!.figure;
+  const rankedOptions = ranked.map((e, i) => ({ rank: i + 1, ...e.option, relativeToBest: e.figure / best }));
+  // A price so small against the energy that the figure underflows leaves nothing to compare against.
+  if (!(best > 0)) {
+    throw new CalcError('figure_out_of_range', 'This option’s cost per kWh is too small to compare against.', `#/options/${ranked[0]!.index}/price/amount`);
+  }
+  assertFiniteNumbers(rankedOptions, `#/options/${ranked[0]!.index}/price/amount`);
 
   const labels = new Set<string>();
   options.forEach((o) => {
@@ -80,7 +86,7 @@ export function computePackCompare(input: PackCompareInput): CalcOutput<PackComp
     data: {
       rankedBy,
       currency,
-      options: ranked.map((e, i) => ({ rank: i + 1, ...e.option, relativeToBest: e.figure / best })),
+      options: rankedOptions,
     },
     checks,
     cautions: [],
