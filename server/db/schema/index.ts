@@ -8,3 +8,4 @@ export * from './metering.ts';
 export * from './email-tokens.ts';
 export * from './invitations.ts';
 export * from './auth-throttles.ts';
+export * from './billing.ts';
