@@ -18,6 +18,7 @@ import { problemsRouter } from './modules/problems/problems.routes.ts';
 import { createPlatform, type Platform } from './modules/metering/platform.ts';
 import type { MeteringHooks } from './modules/metering/metering.ts';
 import { v1Router } from './modules/v1.routes.ts';
+import { accountsConsoleRouter, consoleSecurity } from './modules/console/accounts-console.routes.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
 
 export interface AppDeps {
@@ -50,6 +51,7 @@ export function createApp(deps: AppDeps) {
   const openApiDocument = buildOpenApiDocument();
   app.disable('x-powered-by');
   app.set('query parser', 'simple');
+  if (env.TRUST_PROXY_HOPS > 0) app.set('trust proxy', env.TRUST_PROXY_HOPS);
 
   app.use(
     pinoHttp({
@@ -83,6 +85,9 @@ export function createApp(deps: AppDeps) {
   app.use(healthRouter(db));
   app.use(problemsRouter());
   app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {} }));
+  // The console API: CSRF defence, no-store and the session context for all of it, then the routers.
+  app.use('/console-api', ...consoleSecurity({ env, db }));
+  app.use('/console-api', accountsConsoleRouter({ env, db, logger }));
 
   const openApiJson = JSON.stringify(openApiDocument);
   app.get('/openapi.json', (_req, res) => {
