@@ -10,6 +10,11 @@ import { AppError } from '../http/problem.ts';
 import { requireApiKey, v1Cors } from './metering/api-auth.ts';
 import type { Platform } from './metering/platform.ts';
 import { usageRouter } from './usage/usage.routes.ts';
+import { wiresRouter } from './wires/wires.routes.ts';
+import { fusesRouter } from './fuses/fuses.routes.ts';
+import { parallelRouter } from './parallel/parallel.routes.ts';
+import { compatibilityRouter } from './compatibility/compatibility.routes.ts';
+import { conductorsRouter } from './conductors/conductors.routes.ts';
 
 /** Checks the path and method against the routes documented in the OpenAPI document. */
 function knownRoutesOnly(documentedPaths: Record<string, object>): RequestHandler {
@@ -43,5 +48,10 @@ export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Re
 
   router.use(usageRouter(db));
   // Calculation and reference modules, one line each:
+  router.use(wiresRouter());
+  router.use(fusesRouter());
+  router.use(parallelRouter());
+  router.use(compatibilityRouter());
+  router.use(conductorsRouter());
   return router;
 }

@@ -8,3 +8,8 @@ import '../modules/members/members.openapi.ts';
 import '../modules/invitations/invitations.openapi.ts';
 import '../modules/audit/audit.openapi.ts';
 import '../modules/dev-mailbox/dev-mailbox.openapi.ts';
+import '../modules/wires/wires.openapi.ts';
+import '../modules/fuses/fuses.openapi.ts';
+import '../modules/parallel/parallel.openapi.ts';
+import '../modules/compatibility/compatibility.openapi.ts';
+import '../modules/conductors/conductors.openapi.ts';
