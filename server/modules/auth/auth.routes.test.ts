@@ -285,19 +285,36 @@ describe('sign-in throttling', () => {
   });
 
   it('when one address fails against many accounts, then it is throttled per address', async () => {
-    const strict = await startConsoleKit({ SIGNIN_ADDRESS_MAX_FAILURES: '3' });
+    const strict = await startConsoleKit({ SIGNIN_ADDRESS_MAX_FAILURES: '3', TRUST_PROXY_HOPS: '1' });
     try {
-      // Another address than the other tests use, so the shared database's counters do not interfere.
-      const from = '198.51.100.7';
-      const app = strict.app;
-      strict.app.set('trust proxy', 1);
+      // An address of its own (documentation range, RFC 5737), so other tests' counters do not interfere.
       const attempt = (email: string) =>
-        request(app).post('/console-api/auth/sign-in').set(CSRF_HEADER, '1').set('X-Forwarded-For', from).send({ email, password: 'wrong password for spraying' });
+        request(strict.app).post('/console-api/auth/sign-in').set(CSRF_HEADER, '1').set('X-Forwarded-For', '198.51.100.7').send({ email, password: 'wrong password for spraying' });
       for (let i = 0; i < 3; i++) expect((await attempt(uniqueEmail(`spray${i}`))).status).toBe(401);
       const res = await attempt(uniqueEmail('spray-next'));
       expect(res.status).toBe(429);
-      expect(res.body.detail).toMatch(/from your network address/);
+      expect(res.body.detail).toMatch(/Too many failed sign-ins from your network address\. Wait \d+ minutes/);
       expect(Number(res.headers['retry-after'])).toBeGreaterThan(0);
+      // Another address is not affected.
+      const other = await request(strict.app).post('/console-api/auth/sign-in').set(CSRF_HEADER, '1').set('X-Forwarded-For', '198.51.100.8').send({ email: uniqueEmail('x'), password: 'wrong password for spraying' });
+      expect(other.status).toBe(401);
+    } finally {
+      await strict.close();
+    }
+  });
+
+  it('when one address asks for many e-mails, then it is throttled too', async () => {
+    const strict = await startConsoleKit({ MAIL_REQUESTS_PER_ADDRESS_PER_HOUR: '2', TRUST_PROXY_HOPS: '1' });
+    try {
+      const ask = () => request(strict.app).post('/console-api/auth/forgot-password').set(CSRF_HEADER, '1').set('X-Forwarded-For', '2001:db8:aa:bb01::5').send({ email: uniqueEmail('flood') });
+      expect((await ask()).status).toBe(202);
+      expect((await ask()).status).toBe(202);
+      const res = await ask();
+      expect(res.status).toBe(429);
+      expect(res.body.detail).toMatch(/requests that send e-mail/);
+      // The same IPv6 /56 counts as one address.
+      const neighbour = await request(strict.app).post('/console-api/auth/forgot-password').set(CSRF_HEADER, '1').set('X-Forwarded-For', '2001:db8:aa:bbff::9').send({ email: uniqueEmail('flood') });
+      expect(neighbour.status).toBe(429);
     } finally {
       await strict.close();
     }
