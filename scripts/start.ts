@@ -10,6 +10,7 @@ import { runMigrations } from '../server/db/migrate.ts';
 import { createDb } from '../server/db/client.ts';
 import { demo, seedDemo } from '../server/db/seed.ts';
 import { EnvError, parseEnv } from '../server/env.ts';
+import { startSmtpCatcher } from '../server/fakes/smtp-catcher.ts';
 import { startServer } from '../server/index.ts';
 
 const indent = (line: string) => console.log(`      ${line}`);
@@ -68,11 +69,28 @@ try {
   await buildConsoleIfStale(indent);
 
   step(6, 6, 'Serving the API and the console');
+  // Development: a local SMTP catcher receives the mail the server sends (sign-up, reset, invitations);
+  // the console's development mailbox shows it. In production SMTP_HOST/SMTP_PORT name a real server.
+  let mailbox = '';
+  if (env.NODE_ENV !== 'production') {
+    try {
+      const catcher = await startSmtpCatcher({ host: env.SMTP_HOST, port: env.SMTP_PORT, mailboxDir: env.DEV_MAILBOX_DIR });
+      cleanups.push(() => catcher.close());
+      indent(`Mail catcher listening on ${catcher.host}:${catcher.port} (SMTP).`);
+    } catch (error) {
+      if ((error as NodeJS.ErrnoException).code !== 'EADDRINUSE') throw error;
+      indent(`Port ${env.SMTP_PORT} is taken: mail goes to whatever SMTP server listens there (another Ohmstead's catcher?).`);
+    }
+    mailbox = '/dev/mailbox';
+  }
   const running = await startServer(env);
   cleanups.push(() => running.close());
   console.log(`\n  Ohmstead is running at \x1b[1m${running.url}\x1b[0m`);
   console.log(`  API document: ${running.url}/openapi.json   Health: ${running.url}/healthz`);
-  console.log(`  Demo organization: ${demo.organization.name} (owner ${demo.owner.email})`);
+  console.log(`  Demo organization: ${demo.organization.name} (invented)`);
+  console.log(`  Demo sign-in: \x1b[1m${demo.owner.email}\x1b[0m with passphrase \x1b[1m${demo.password}\x1b[0m (owner)`);
+  console.log(`    also ${demo.team.map((m) => `${m.email} (${m.role})`).join(', ')}, same passphrase`);
+  if (mailbox) console.log(`  Development mailbox (mail the server sent): ${running.url}${mailbox}`);
   console.log('  Press Ctrl-C to stop.\n');
 } catch (error) {
   console.error(error);
