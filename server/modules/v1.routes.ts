@@ -10,6 +10,11 @@ import { AppError } from '../http/problem.ts';
 import { requireApiKey, v1Cors } from './metering/api-auth.ts';
 import type { Platform } from './metering/platform.ts';
 import { usageRouter } from './usage/usage.routes.ts';
+import { packsRouter } from './packs/packs.routes.ts';
+import { runtimeRouter } from './runtime/runtime.routes.ts';
+import { chargeRouter } from './charge/charge.routes.ts';
+import { capacityTestsRouter } from './capacity-tests/capacity-tests.routes.ts';
+import { chemistriesRouter } from './chemistries/chemistries.routes.ts';
 import { wiresRouter } from './wires/wires.routes.ts';
 import { fusesRouter } from './fuses/fuses.routes.ts';
 import { parallelRouter } from './parallel/parallel.routes.ts';
@@ -48,6 +53,11 @@ export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Re
 
   router.use(usageRouter(db));
   // Calculation and reference modules, one line each:
+  router.use(packsRouter());
+  router.use(runtimeRouter());
+  router.use(chargeRouter());
+  router.use(capacityTestsRouter());
+  router.use(chemistriesRouter());
   router.use(wiresRouter());
   router.use(fusesRouter());
   router.use(parallelRouter());

@@ -13,3 +13,8 @@ import '../modules/fuses/fuses.openapi.ts';
 import '../modules/parallel/parallel.openapi.ts';
 import '../modules/compatibility/compatibility.openapi.ts';
 import '../modules/conductors/conductors.openapi.ts';
+import '../modules/packs/packs.openapi.ts';
+import '../modules/runtime/runtime.openapi.ts';
+import '../modules/charge/charge.openapi.ts';
+import '../modules/capacity-tests/capacity-tests.openapi.ts';
+import '../modules/chemistries/chemistries.openapi.ts';

@@ -188,7 +188,7 @@ describe('computeChargeTime — trade facts and rules', () => {
   });
 
   it('when the worked example is computed, then its profile is bounded, starts at the start and ends at the target', () => {
-    const { data } = computeChargeTime(chargeTimeInputExample as never);
+    const { data } = computeChargeTime(ChargeTimeInputSchema.parse(chargeTimeInputExample));
     expect(data.profile.length).toBeLessThanOrEqual(MAX_PROFILE_POINTS);
     expect(data.profile[0]).toMatchObject({ minute: 0, socPct: 20 });
     expect(data.profile.at(-1)!.socPct).toBe(100);

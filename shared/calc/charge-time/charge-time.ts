@@ -173,14 +173,15 @@ export function simulateCcCv(model: CcCvModel, fromPct: number, toPct: number): 
   const { capacityAh: ah, coulombicEfficiency: eta, taperTimeConstantH: tau } = model;
   const ahPerPct = ah / 100;
 
-  const sourceCurrents = (q: number): number[] => {
+  // Hot loops: written without allocations (this runs a few thousand times per request).
+  const sourceCurrent = (s: CcCvSource, ocv: number) =>
+    Math.min(s.currentA ?? Infinity, s.powerW !== undefined ? (s.powerW * s.efficiency) / ocv : Infinity);
+  const sourceTotal = (q: number) => {
     const ocv = model.ocvV(q);
-    return model.sources.map((s) => {
-      const fromPower = s.powerW !== undefined ? (s.powerW * s.efficiency) / ocv : Infinity;
-      return Math.min(s.currentA ?? Infinity, fromPower);
-    });
+    let total = 0;
+    for (const s of model.sources) total += sourceCurrent(s, ocv);
+    return total;
   };
-  const sourceTotal = (q: number) => sourceCurrents(q).reduce((a, b) => a + b, 0);
   const available = (q: number) => Math.min(sourceTotal(q), model.maxChargeA ?? Infinity);
   const cvLine = (q: number) => model.terminationCurrentA + ((100 - q) * ahPerPct) / (eta * tau);
   const current = (q: number) => Math.min(available(q), cvLine(q));
@@ -192,9 +193,15 @@ export function simulateCcCv(model: CcCvModel, fromPct: number, toPct: number): 
   };
   /** Σ (share of the current from source i) / efficiency i: the source energy per unit of pack energy. */
   const sourceEnergyWeight = (q: number) => {
-    const parts = sourceCurrents(q);
-    const total = parts.reduce((a, b) => a + b, 0);
-    return parts.reduce((acc, part, i) => acc + part / total / model.sources[i]!.efficiency, 0);
+    const ocv = model.ocvV(q);
+    let total = 0;
+    let weighted = 0;
+    for (const s of model.sources) {
+      const part = sourceCurrent(s, ocv);
+      total += part;
+      weighted += part / s.efficiency;
+    }
+    return weighted / total;
   };
 
   // Piece boundaries: the grid, the curve's breakpoints, and every switch of the limiting term.
@@ -209,13 +216,13 @@ export function simulateCcCv(model: CcCvModel, fromPct: number, toPct: number): 
       s.currentA === undefined || s.powerW === undefined ? 1 : s.currentA - (s.powerW * s.efficiency) / model.ocvV(q),
     ),
   ];
-  for (let k = 0; k + 1 < base.length; k += 1) {
-    const a = base[k]!;
-    const b = base[k + 1]!;
-    for (const g of switchFns) {
-      const ga = g(a);
-      const gb = g(b);
-      if ((ga > 0 && gb <= 0) || (ga <= 0 && gb > 0)) cuts.add(bisect(g, a, b));
+  // Each switch function is evaluated once per grid point; a sign change between neighbours is bisected.
+  for (const g of switchFns) {
+    let ga = g(base[0]!);
+    for (let k = 0; k + 1 < base.length; k += 1) {
+      const gb = g(base[k + 1]!);
+      if ((ga > 0 && gb <= 0) || (ga <= 0 && gb > 0)) cuts.add(bisect(g, base[k]!, base[k + 1]!));
+      ga = gb;
     }
   }
   const bounds = [...cuts].sort((a, b) => a - b);
@@ -242,9 +249,14 @@ export function simulateCcCv(model: CcCvModel, fromPct: number, toPct: number): 
       ccHours += dt;
     }
     hours += dt;
-    // Energy: V·I·dt = V·dQ/η.
-    energyIntoPackWh += gaussLegendre((q) => (voltage(q) * ahPerPct) / eta, a, b);
-    energyFromSourceWh += gaussLegendre((q) => (voltage(q) * sourceEnergyWeight(q) * ahPerPct) / eta, a, b);
+    // Energy: V·I·dt = V·dQ/η, into the pack and (each source's share ÷ its efficiency) from the sources.
+    const half = (b - a) / 2;
+    for (let i = 0; i < GL_X.length; i += 1) {
+      const q = mid + half * GL_X[i]!;
+      const v = voltage(q);
+      energyIntoPackWh += GL_W[i]! * half * ((v * ahPerPct) / eta);
+      energyFromSourceWh += GL_W[i]! * half * ((v * sourceEnergyWeight(q) * ahPerPct) / eta);
+    }
     nodes.push({ socPct: b, hours, taper: inTaper });
   }
   return {

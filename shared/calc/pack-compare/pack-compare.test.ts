@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import * as math from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { CalcError } from '../errors.ts';
-import { PackCompareInputSchema, PackCompareResultSchema, packCompareInputExample } from '../../schemas/pack-compare.ts';
+import { PackCompareInputSchema, PackCompareResultSchema, packCompareInputExample, type PackCompareInput } from '../../schemas/pack-compare.ts';
 import { computePackCompare } from './pack-compare.ts';
 import { allFinite, anyPack, everydayPack, num } from '../pack-energy/fixtures/arbitraries.ts';
 
@@ -10,7 +10,7 @@ const usd = (amount: number) => ({ amount, currency: 'USD' });
 
 describe('computePackCompare', () => {
   it('when every option has a cycle life, then they are ranked by cost per kWh cycled, lowest first', () => {
-    const { data } = computePackCompare(packCompareInputExample as never);
+    const { data } = computePackCompare(PackCompareInputSchema.parse(packCompareInputExample));
     expect(data.rankedBy).toBe('costPerKWhCycled');
     // By hand (mathjs evaluate), usable kWh × cycles:
     // A: 51.2 V × 100 Ah × 0.8 = 4.096 kWh × 4000; B: 12.8 V × 280 Ah × 0.8 = 2.8672 kWh × 3500;
@@ -29,12 +29,12 @@ describe('computePackCompare', () => {
   });
 
   it('when one option lacks a cycle life, then all are ranked by cost per usable kWh and a check says why', () => {
-    const input = {
+    const input: PackCompareInput = {
       options: [
         { label: 'Long life', pack: { chemistry: 'lfp', seriesCells: 4, capacityAh: 100 }, price: usd(600), cycleLife: 6000 },
         { label: 'Cheap', pack: { chemistry: 'lead_acid_agm', seriesCells: 6, capacityAh: 100 }, price: usd(150) },
       ],
-    } as const;
+    };
     const { data, checks } = computePackCompare(input);
     expect(data.rankedBy).toBe('costPerUsableKWh');
     // Usable: LFP 12.8 × 100 × 0.8 = 1.024 kWh → 585.94/kWh; AGM 12 × 100 × 0.5 = 0.6 kWh → 250/kWh.

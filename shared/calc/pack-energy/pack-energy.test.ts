@@ -45,7 +45,7 @@ describe('computePackEnergy — trade facts and published values', () => {
 
 describe('computePackEnergy — value figures', () => {
   it('when a price and cycle life are given, then cost per usable kWh and per kWh cycled follow (checked with mathjs evaluate)', () => {
-    const { data, checks } = computePackEnergy(packEnergyInputExample as never);
+    const { data, checks } = computePackEnergy(PackEnergyInputSchema.parse(packEnergyInputExample));
     // Independent arithmetic by mathjs's expression evaluator.
     const usableKWh = math.evaluate('16 * 3.2 * 100 * 0.90 / 1000');
     expect(data.usableEnergyKWh).toBeCloseTo(usableKWh, 12);

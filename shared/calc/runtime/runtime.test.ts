@@ -23,7 +23,7 @@ describe('computeRuntime — energy balance', () => {
   });
 
   it('when the worked example is computed, then mathjs’s evaluator gives the same runtime', () => {
-    const { data } = computeRuntime(runtimeInputExample as never);
+    const { data } = computeRuntime(RuntimeInputSchema.parse(runtimeInputExample));
     // mathjs (npm) as an outside evaluator of the same balance: AC 120 × 0.4 + 65, DC 24, idle 15, η 0.9.
     const expected = math.evaluate('(51.2 * 100 * 0.8) / ((120 * 0.4 + 65) / 0.9 + 24 + 15)');
     expect(data.runtimeHours).toBeCloseTo(expected, 10);
