@@ -19,6 +19,10 @@ import { createPlatform, type Platform } from './modules/metering/platform.ts';
 import type { MeteringHooks } from './modules/metering/metering.ts';
 import { v1Router } from './modules/v1.routes.ts';
 import { accountsConsoleRouter, consoleSecurity } from './modules/console/accounts-console.routes.ts';
+import { keysConsoleRouter } from './modules/keys/keys.routes.ts';
+import { createMailer, type Mailer } from './modules/mail/mailer.ts';
+import { createQuotaNotifier } from './modules/usage/quota-notifier.ts';
+import { usageConsoleRouter } from './modules/usage/usage-console.routes.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
 
 export interface AppDeps {
@@ -27,6 +31,7 @@ export interface AppDeps {
   pool: pg.Pool;
   logger: Logger;
   meteringHooks?: MeteringHooks;
+  mailer?: Mailer;
 }
 
 declare global {
@@ -46,7 +51,15 @@ const API_PREFIXES = ['/v1', '/console-api', '/problems', '/openapi.json', '/hea
 export function createApp(deps: AppDeps) {
   const { env, db, pool, logger } = deps;
   const app = express();
-  const platform = createPlatform({ env, db, pool, logger, hooks: deps.meteringHooks });
+  const mailer = deps.mailer ?? createMailer(env, logger);
+  const consoleUrl = env.PUBLIC_URL?.replace(/\/$/, '') ?? `http://${env.HOST}:${env.PORT}`;
+  const platform = createPlatform({
+    env,
+    db,
+    pool,
+    logger,
+    hooks: deps.meteringHooks ?? { onCounted: createQuotaNotifier({ db, mailer, logger, consoleUrl }) },
+  });
   app.platform = platform;
   const openApiDocument = buildOpenApiDocument();
   app.disable('x-powered-by');
@@ -87,7 +100,9 @@ export function createApp(deps: AppDeps) {
   app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {} }));
   // The console API: CSRF defence, no-store and the session context for all of it, then the routers.
   app.use('/console-api', ...consoleSecurity({ env, db }));
-  app.use('/console-api', accountsConsoleRouter({ env, db, logger }));
+  app.use('/console-api', accountsConsoleRouter({ env, db, logger, mailer }));
+  app.use('/console-api', keysConsoleRouter({ db, hashSecret: platform.hashSecret, resolver: platform.resolver }));
+  app.use('/console-api', usageConsoleRouter({ db }));
 
   const openApiJson = JSON.stringify(openApiDocument);
   app.get('/openapi.json', (_req, res) => {
