@@ -1,4 +1,4 @@
-import { solveODE } from 'mathjs';
+import * as mathjs from 'mathjs';
 import { describe, expect, it } from 'vitest';
 import { ParallelConnectInputSchema } from '../../schemas/parallel-connect.ts';
 import { chemistries } from '../chemistry/presets.ts';
@@ -9,6 +9,11 @@ import { computeParallelConnect } from './parallel-connect.ts';
 import { simulateConnection } from './simulate.ts';
 
 const connect = (input: Record<string, unknown>) => computeParallelConnect(ParallelConnectInputSchema.parse(input));
+// mathjs ships solveODE (Dormand–Prince RK45) but its type declarations do not list it.
+const solveODE = (mathjs as unknown as {
+  solveODE: (f: (t: number, y: number[]) => number[], tspan: number[], y0: number[], options: Record<string, number>) => { t: number[]; y: number[][] };
+}).solveODE;
+
 const lfp16 = (extra: Record<string, unknown>) => ({ chemistry: 'lfp' as const, seriesCells: 16, capacityAh: 100, ...extra });
 
 function rng(seed: number) {
@@ -112,7 +117,7 @@ describe('equalization over time', () => {
     };
     for (const frac of [0.02, 0.1, 0.3, 0.6, 1]) {
       const k = Math.max(1, Math.round(frac * (sim.tS.length - 1)));
-      const ref = solveODE(f, [0, sim.tS[k]!], [99.8, 3], { tol: 1e-9, maxIter: 1e6 }) as unknown as { y: number[][] };
+      const ref = solveODE(f, [0, sim.tS[k]!], [99.8, 3], { tol: 1e-9, maxIter: 1e6 });
       const [refA, refB] = ref.y.at(-1)!;
       expect(Math.abs(sim.socAPct[k]! - refA!)).toBeLessThan(2e-4);
       expect(Math.abs(sim.socBPct[k]! - refB!)).toBeLessThan(2e-4);
