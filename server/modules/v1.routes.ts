@@ -4,11 +4,12 @@
  * authentication, and for calculations (POST) idempotency and metering. Calculation handlers answer through
  * `res.locals.sendMetered`. Reference data and usage (GET) need a key but are not metered.
  */
-import { Router, type RequestHandler } from 'express';
+import express, { Router, type RequestHandler } from 'express';
 import type { Db } from '../db/client.ts';
 import { AppError } from '../http/problem.ts';
 import { requireApiKey, v1Cors } from './metering/api-auth.ts';
 import type { Platform } from './metering/platform.ts';
+import { CSV_LIMIT_BYTES } from './capacity-tests/capacity-tests.routes.ts';
 import { usageRouter } from './usage/usage.routes.ts';
 import { packsRouter } from './packs/packs.routes.ts';
 import { runtimeRouter } from './runtime/runtime.routes.ts';
@@ -49,7 +50,8 @@ export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Re
   const calculationKey = requireApiKey(platform.resolver, { calculation: true });
   const referenceKey = requireApiKey(platform.resolver, { calculation: false });
   router.use((req, res, next) => (req.method === 'POST' ? calculationKey : referenceKey)(req, res, next));
-  router.post('/*path', platform.metering.idempotency, platform.metering.meterCalls);
+  // CSV bodies (capacity-test logs) are read here, before idempotency hashes the payload.
+  router.post('/*path', express.text({ type: 'text/csv', limit: CSV_LIMIT_BYTES }), platform.metering.idempotency, platform.metering.meterCalls);
 
   router.use(usageRouter(db));
   // Calculation and reference modules, one line each:

@@ -21,7 +21,7 @@ export const PackSpecSchema = z
     label: LabelSchema.optional().meta({ example: 'Shelf pack 48-100' }),
     chemistry: ChemistrySchema,
     seriesCells: z.number().int().min(1).max(400).meta({ description: 'Cells (or cell groups) in series.', example: 16 }),
-    capacityAh: z.number().positive().max(100_000).meta({ description: 'Rated capacity, Ah.', example: 100 }),
+    capacityAh: z.number().min(0.001).max(100_000).meta({ description: 'Rated capacity, Ah.', example: 100 }),
     stateOfChargePct: z.number().min(0).max(100).optional().meta({ description: 'State of charge, %. Used to look up the open-circuit voltage.', example: 50 }),
     restingVoltageV: z
       .number()

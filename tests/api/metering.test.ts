@@ -81,6 +81,21 @@ describe('Idempotency-Key', () => {
     expect(await counted(org.id)).toBe(1);
   });
 
+  it('when a CSV log is retried under the same key with other rows or another rating, then it is refused, not replayed', async () => {
+    const { org, secret } = await keyFor({ monthly: 100, perMinute: 100 });
+    const csv = (amps: number) => `tS,currentA\n0,${amps}\n3600,${amps}\n`;
+    const post = (query: string, text: string) =>
+      request(app).post(`/v1/capacity-tests/evaluate?${query}`).set('Authorization', `Bearer ${secret}`).set('Idempotency-Key', 'log-42').set('Content-Type', 'text/csv').send(text);
+    const first = await post('ratedAh=20', csv(20));
+    expect(first.status).toBe(200);
+    expect(first.body.data.measuredAh).toBeCloseTo(20, 10);
+    expect((await post('ratedAh=20', csv(18))).status).toBe(422);
+    expect((await post('ratedAh=25', csv(20))).status).toBe(422);
+    const replay = await post('ratedAh=20', csv(20));
+    expect(replay.headers['idempotent-replayed']).toBe('true');
+    expect(await counted(org.id)).toBe(1);
+  });
+
   it('when the key is malformed, then it is a 400 naming the header', async () => {
     const { secret } = await keyFor({ monthly: 100, perMinute: 100 });
     const res = await energy(secret, { 'Idempotency-Key': 'has spaces in it' });

@@ -7,7 +7,8 @@
  * Idempotency (draft-ietf-httpapi-idempotency-key-header): with an `Idempotency-Key`, the answer is
  * stored in the same transaction as the count. A retry with the same key and payload is answered again
  * from the store (`Idempotent-Replayed: true`) and not counted; the same key with another payload is 422;
- * while the first call is still in flight on this instance, 409. Keys: 1–255 printable ASCII characters,
+ * while the first call is still in flight on this instance, 409. The payload is the method, the URL with its
+ * query, the content type and the body (JSON or CSV text). Keys: 1–255 printable ASCII characters,
  * sent bare or as a quoted sf-string; kept 24 hours, per API key.
  */
 import { createHash } from 'node:crypto';
@@ -95,7 +96,7 @@ function meterCalls(db: Db, batcher: MeterBatcher, hooks: MeteringHooks): Reques
 
 function requestHashOf(req: Request): string {
   const payload = typeof req.body === 'string' ? req.body : JSON.stringify(req.body ?? null);
-  return createHash('sha256').update(`${req.method} ${req.baseUrl}${req.path}\n${req.get('content-type') ?? ''}\n${payload}`).digest('hex');
+  return createHash('sha256').update(`${req.method} ${req.originalUrl}\n${req.get('content-type') ?? ''}\n${payload}`).digest('hex');
 }
 
 async function findRecord(db: Db, apiKeyId: string, key: string) {
