@@ -54,6 +54,10 @@ export function packEnergyBetweenSocWh(pack: Pick<PackSpec, 'chemistry' | 'serie
 
 const SLICES = 400;
 
+/**
+ * Checks an external pack against a host (model above): one entry in `methods` per way the host was
+ * described (dcInput → `dc_input`, battery → `direct_parallel`). Powers in W, energy in Wh, time in h.
+ */
 export function computeCompatibility(input: CompatibilityInput): CalcOutput<CompatibilityData> {
   const ext = input.external;
   const checks: Check[] = [];

@@ -39,6 +39,11 @@ export function conductorMaxProtectionA(row: { ampacityA: Record<60 | 75 | 90, n
   return limit === null ? ampacity : Math.min(ampacity, limit);
 }
 
+/**
+ * Sizes a fuse (model above). Input units: continuousCurrentA (A), linkResistanceMOhm (mΩ),
+ * prospectiveShortCircuitA (A), systemMaxVoltageV (V). Returns the rating window in A, the prospective
+ * short-circuit current in A and the DC voltage rating in V.
+ */
 export function computeFuseSize(input: FuseSizeInput): CalcOutput<FuseSizeData> {
   const checks: Check[] = [];
   const basis: string[] = [...overcurrentSources];

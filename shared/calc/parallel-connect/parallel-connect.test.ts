@@ -266,3 +266,31 @@ describe('verdict, matching and pre-charge', () => {
     for (let k = 1; k < r.data.timeline.length; k += 1) expect(r.data.timeline[k]!.tS).toBeGreaterThan(r.data.timeline[k - 1]!.tS);
   });
 });
+
+describe('robustness', () => {
+  it('when random valid packs of any chemistry are connected, then the answer is finite or a CalcError, never another failure (seeded)', () => {
+    const next = rng(2718);
+    const chems = ['lfp', 'nmc', 'lto', 'lead_acid_agm', 'lead_acid_flooded'] as const;
+    const pack = () => ({
+      chemistry: chems[Math.floor(next() * 5)]!,
+      seriesCells: 1 + Math.floor(next() * 20),
+      capacityAh: 0.5 + next() * 300,
+      ...(next() < 0.5 ? { stateOfChargePct: next() < 0.2 ? Math.round(next()) * 100 : next() * 100 } : { restingVoltageV: 1 + next() * 80 }),
+      ...(next() < 0.8 ? { internalResistanceMOhm: next() * 200 } : {}),
+      ...(next() < 0.5 ? { maxContinuousDischargeA: 1 + next() * 300 } : {}),
+      ...(next() < 0.3 ? { peakDischargeA: 1 + next() * 600, peakDurationS: 1 + next() * 30 } : {}),
+    });
+    for (let k = 0; k < 400; k += 1) {
+      try {
+        const r = connect({ packA: pack(), packB: pack(), ...(next() < 0.5 ? { link: { resistanceMOhm: next() * 10 } } : {}), ...(next() < 0.3 ? { prechargeTargetA: 0.1 + next() * 50 } : {}) });
+        JSON.stringify(r.data, (_key, v) => {
+          if (typeof v === 'number') expect(Number.isFinite(v)).toBe(true);
+          return v;
+        });
+        expect(r.data.timeline.length).toBeLessThanOrEqual(201);
+      } catch (e) {
+        expect(e).toBeInstanceOf(CalcError);
+      }
+    }
+  });
+});

@@ -64,6 +64,11 @@ export function linkResistanceOhm(link: ParallelConnectInput['link']): { ohm: nu
   return { ohm: 0, description: 'no link resistance given (zero)' };
 }
 
+/**
+ * Connects pack A to pack B (model above). Resistances in mΩ, cable lengths in m or ft; returns volts, amperes
+ * (positive from A into B), seconds, ampere-hours, watt-hours, the verdict, the matching difference and the
+ * pre-charge resistor (Ω, W, J), and a timeline of at most 201 points.
+ */
 export function computeParallelConnect(input: ParallelConnectInput): CalcOutput<ParallelConnectData> {
   const checks: Check[] = [];
   const a = packSource(input.packA, 'Pack A');

@@ -118,6 +118,12 @@ export function simulateConnection(a: PackSource, b: PackSource, resistanceOhm: 
   }
   let steps = 0;
   while (endReason === 'step_limit' && steps < maxSteps) {
+    if (i === 0) {
+      // Exactly equal voltages: nothing left to move (guards the adaptive step against a division by zero).
+      endReason = 'settled';
+      stopTimeS = t;
+      break;
+    }
     const h = options.fixedStepS ?? adaptiveStep(sA, sB, i);
     let [nA, nB, dHeat] = rk4(h, sA, sB);
     let iNext = current(nA, nB);

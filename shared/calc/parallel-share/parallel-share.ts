@@ -103,6 +103,11 @@ export function thinIndices(n: number, max: number): number[] {
   return out;
 }
 
+/**
+ * Shares a load between 2–8 packs (model above). Resistances in mΩ on input (internal + cable), load in A or W;
+ * returns the bus voltage (V), each pack's current (A, negative when charged), power (W) and share (%), and
+ * optionally the timeline to the first cut-off (s).
+ */
 export function computeParallelShare(input: ParallelShareInput): CalcOutput<ParallelShareData> {
   const checks: Check[] = [];
   const sources: PackSource[] = input.packs.map((p, i) => packSource(p, `Pack ${i + 1}`));

@@ -61,6 +61,11 @@ interface Evaluated {
 
 const fmt = (x: number, d = 1) => String(roundTo(x, d));
 
+/**
+ * Sizes a copper conductor for a DC run (model above). Input units: currentA (A), systemVoltageV (V),
+ * oneWayLengthM (m) or oneWayLengthFt (ft), maxVoltageDropPct (%), ambientTempC (°C). Returns the
+ * recommendation (or null with a danger check), `limitedBy`, the fuse the current needs and every candidate.
+ */
 export function computeWireSize(input: WireSizeInput): CalcOutput<WireSizeData> {
   const currentA = input.currentA;
   const lengthM = resolveOneWayLengthM(input);
