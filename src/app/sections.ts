@@ -1,8 +1,12 @@
 /** The console's sections, in navigation order. One list drives the menu and the routes. */
+import type { Role } from '#shared/schemas/accounts.ts';
+
 export interface Section {
   path: string;
   label: string;
   summary: string;
+  /** Roles that see the section; all when absent. The server enforces the same rule. */
+  roles?: readonly Role[];
 }
 
 export const sections: Section[] = [
@@ -15,6 +19,8 @@ export const sections: Section[] = [
   { path: '/catalog', label: 'Catalog', summary: 'Your own host units and packs, by form or CSV upload, for your widgets.' },
   { path: '/team', label: 'Team', summary: 'Members, their roles and open invitations.' },
   { path: '/billing', label: 'Billing', summary: 'Your plan, invoices and payment method.' },
-  { path: '/audit', label: 'Audit log', summary: 'Who did what, when and from where.' },
+  { path: '/audit', label: 'Audit log', summary: 'Who did what, when and from where.', roles: ['owner', 'admin'] },
   { path: '/settings', label: 'Settings', summary: 'Organization name and preferences.' },
 ];
+
+export const visibleSections = (role: Role | null | undefined) => sections.filter((s) => !s.roles || (role != null && s.roles.includes(role)));
