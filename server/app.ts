@@ -113,7 +113,7 @@ export function createApp(deps: AppDeps) {
   const indexHtml = join(distDir, 'index.html');
   if (existsSync(indexHtml)) {
     app.use(express.static(distDir, { index: false, maxAge: '1h', immutable: false }));
-    app.get('/*path', (req, res, next) => {
+    app.get('/{*path}', (req, res, next) => {
       if (API_PREFIXES.some((p) => req.path === p || req.path.startsWith(`${p}/`)) || !req.accepts('html')) {
         next();
         return;
