@@ -23,6 +23,7 @@ import { keysConsoleRouter } from './modules/keys/keys.routes.ts';
 import { createMailer, type Mailer } from './modules/mail/mailer.ts';
 import { createQuotaNotifier } from './modules/usage/quota-notifier.ts';
 import { usageConsoleRouter } from './modules/usage/usage-console.routes.ts';
+import { createBilling } from './modules/billing/billing.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
 
 export interface AppDeps {
@@ -61,6 +62,8 @@ export function createApp(deps: AppDeps) {
     hooks: deps.meteringHooks ?? { onCounted: createQuotaNotifier({ db, mailer, logger, consoleUrl }) },
   });
   app.platform = platform;
+  const billing = createBilling({ env, db, pool, logger, resolver: platform.resolver, mailer });
+  app.billing = billing;
   const openApiDocument = buildOpenApiDocument();
   app.disable('x-powered-by');
   app.set('query parser', 'simple');
@@ -93,6 +96,8 @@ export function createApp(deps: AppDeps) {
       strictTransportSecurity: false,
     }),
   );
+  // Stripe webhooks need the raw body to verify its signature: before the JSON parser.
+  app.use(billing.webhookRouter);
   app.use(express.json({ limit: env.BODY_LIMIT_BYTES, type: ['application/json', 'application/*+json'] }));
 
   app.use(healthRouter(db));
@@ -103,6 +108,7 @@ export function createApp(deps: AppDeps) {
   app.use('/console-api', accountsConsoleRouter({ env, db, logger, mailer }));
   app.use('/console-api', keysConsoleRouter({ db, hashSecret: platform.hashSecret, resolver: platform.resolver }));
   app.use('/console-api', usageConsoleRouter({ db }));
+  app.use('/console-api', billing.consoleRouter);
 
   const openApiJson = JSON.stringify(openApiDocument);
   app.get('/openapi.json', (_req, res) => {

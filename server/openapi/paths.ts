@@ -18,3 +18,4 @@ import '../modules/runtime/runtime.openapi.ts';
 import '../modules/charge/charge.openapi.ts';
 import '../modules/capacity-tests/capacity-tests.openapi.ts';
 import '../modules/chemistries/chemistries.openapi.ts';
+import '../modules/billing/billing.openapi.ts';

@@ -197,7 +197,8 @@ export function createBillingService(deps: BillingServiceDeps) {
     try {
       return await stripe.subscriptions.retrieve(subscriptionId);
     } catch (error) {
-      if (!isMissing(error)) throw error;
+      // A 503 makes Stripe deliver the event again later; the transaction (and the event id) rolls back.
+      if (!isMissing(error)) throw providerUnavailable(error);
       const object = event.data.object as unknown as Stripe.Subscription;
       return event.type === 'customer.subscription.deleted' && object.id === subscriptionId ? object : null;
     }

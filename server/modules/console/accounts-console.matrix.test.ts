@@ -11,9 +11,22 @@ import { CSRF_HEADER, type Role } from '#shared/schemas/accounts.ts';
 import { auditEvents, emailTokens, invitations, memberships, organizations } from '../../db/schema/index.ts';
 import { buildOpenApiDocument } from '../../openapi/document.ts';
 import { hashToken, randomToken } from '../auth/tokens.ts';
-import { accountsConsoleRoutes, type ConsoleAccess } from './console.openapi.ts';
-import { createOrganizationWith, createUser, sessionCookie, startConsoleKit, TEST_PASSWORD, uniqueEmail, type ConsoleKit } from './console.test-kit.ts';
+import { consoleRoutes, type ConsoleAccess } from './console.openapi.ts';
 
+/** The accounts modules' part of the console API (other modules' routes have matrices of their own). */
+const ACCOUNTS_PREFIXES = ['/console-api/auth/', '/console-api/session', '/console-api/account', '/console-api/organization', '/console-api/members', '/console-api/invitations', '/console-api/audit-events', '/console-api/dev/'];
+const accountsConsoleRoutes = consoleRoutes.filter((r) => ACCOUNTS_PREFIXES.some((p) => r.path === p || r.path.startsWith(p)));
+import { createOrganizationWith, createUser, sessionCookie, startConsoleKit, TEST_PASSWORD, uniqueEmail, type ConsoleKit } from './console.test-kit.ts';
+import { billingAccounts } from '../../db/schema/index.ts';
+import { giveBillingAccount, startBillingFake, type BillingFake } from '../billing/billing.test-kit.ts';
+
+// Billing routes talk to the payment provider: the Stripe-shaped fake starts first and the app is pointed at it.
+let billingFake: BillingFake;
+beforeAll(async () => {
+  billingFake = await startBillingFake();
+  Object.assign(process.env, billingFake.env);
+});
+afterAll(() => billingFake.close());
 let kit: ConsoleKit;
 beforeAll(async () => {
   kit = await startConsoleKit();
@@ -215,6 +228,29 @@ const rows: Row[] = [
   },
   { method: 'get', path: '/console-api/dev/mailbox', send: () => ({ url: '/console-api/dev/mailbox' }) },
   { method: 'delete', path: '/console-api/dev/mailbox', send: () => ({ url: '/console-api/dev/mailbox' }) },
+  // Billing is the owner's: the page, invoices, checkout and portal (the outsider owns organization B and acts on it).
+  { method: 'get', path: '/console-api/billing', send: () => ({ url: '/console-api/billing' }), check: (_w, res) => void (res.status === 200 && expect(res.body.plan.id).toBe('free')) },
+  { method: 'get', path: '/console-api/billing/invoices', send: () => ({ url: '/console-api/billing/invoices' }) },
+  {
+    method: 'post',
+    path: '/console-api/billing/checkout',
+    send: () => ({ url: '/console-api/billing/checkout', body: { planId: 'builder' } }),
+    check: async (w, res) => {
+      const [account] = await kit.db.select().from(billingAccounts).where(eq(billingAccounts.organizationId, w.a.org.id));
+      expect(Boolean(account?.stripeCustomerId)).toBe(w.actor === 'owner');
+      if (res.status === 201) expect(res.body.url).toMatch(/\/checkout\/cs_test_/);
+    },
+  },
+  {
+    method: 'post',
+    path: '/console-api/billing/portal',
+    send: async (w) => {
+      await giveBillingAccount(kit.db, billingFake.stripe, w.a.org.id);
+      await giveBillingAccount(kit.db, billingFake.stripe, w.b.org.id);
+      return { url: '/console-api/billing/portal' };
+    },
+    check: (_w, res) => void (res.status === 201 && expect(res.body.url).toMatch(/\/portal\/bps_/)),
+  },
 ];
 
 const document = buildOpenApiDocument();
