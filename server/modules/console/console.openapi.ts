@@ -1,7 +1,7 @@
 /**
  * OpenAPI registration for console routes (tag "Console"): cookie session auth, the CSRF header on every
- * state-changing request, and problem responses. `accountsConsoleRoutes` lists what the account modules
- * register, with who may call each; the role × route matrix test checks itself against it.
+ * state-changing request, and problem responses. `consoleRoutes` lists every route registered here, with
+ * who may call each; the accounts role × route matrix test checks itself against the accounts part of it.
  */
 import { z } from 'zod';
 import { CSRF_HEADER, CSRF_HEADER_VALUE, type Role } from '#shared/schemas/accounts.ts';
@@ -24,7 +24,7 @@ export interface ConsoleRoute {
   access: ConsoleAccess;
 }
 
-export const accountsConsoleRoutes: ConsoleRoute[] = [];
+export const consoleRoutes: ConsoleRoute[] = [];
 
 const CsrfHeaders = z.object({
   [CSRF_HEADER]: z.literal(CSRF_HEADER_VALUE).meta({ description: 'Required on every state-changing console request (cross-site request forgery defence).' }),
@@ -44,7 +44,7 @@ export function registerConsolePath(options: {
   problems?: Partial<Record<400 | 401 | 403 | 404 | 409 | 422 | 429, string>>;
 }) {
   const path = `/console-api${options.path}`;
-  accountsConsoleRoutes.push({ method: options.method, path, access: options.access });
+  consoleRoutes.push({ method: options.method, path, access: options.access });
   const changes = options.method !== 'get';
   const who =
     options.access === 'public'

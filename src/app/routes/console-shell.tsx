@@ -1,6 +1,5 @@
 import { Link, Outlet, useNavigate } from 'react-router';
 import { ConsoleLayout } from '../../components/layout/console-layout.tsx';
-import { Button } from '../../components/ui/button.tsx';
 import { useSignOut } from '../../features/auth/api/sign-out.ts';
 import { RequireSession } from '../../features/auth/components/require-session.tsx';
 import { CreateOrganizationPage } from '../../features/organization/components/create-organization-page.tsx';
@@ -24,9 +23,14 @@ function AccountMenu() {
         <Link to="/account" className="text-copper underline-offset-2 hover:underline">
           Account
         </Link>
-        <Button tone="quiet" className="min-h-0 px-0 py-0" busy={signOut.isPending} onClick={() => signOut.mutate(undefined, { onSettled: () => navigate('/sign-in', { replace: true }) })}>
+        <button
+          type="button"
+          className="text-copper underline-offset-2 hover:underline disabled:opacity-60"
+          disabled={signOut.isPending}
+          onClick={() => signOut.mutate(undefined, { onSettled: () => navigate('/sign-in', { replace: true }) })}
+        >
           Sign out
-        </Button>
+        </button>
       </div>
     </div>
   );
