@@ -11,6 +11,7 @@ import { createDb } from '../server/db/client.ts';
 import { demo, seedDemo } from '../server/db/seed.ts';
 import { EnvError, parseEnv } from '../server/env.ts';
 import { startSmtpCatcher } from '../server/fakes/smtp-catcher.ts';
+import { startDevelopmentStripeFake } from '../server/fakes/stripe-fake.ts';
 import { startServer } from '../server/index.ts';
 
 const indent = (line: string) => console.log(`      ${line}`);
@@ -83,8 +84,12 @@ try {
     }
     mailbox = '/dev/mailbox';
   }
+  // Development: the local Stripe-shaped server the default billing configuration points at.
+  const stripeFake = env.NODE_ENV !== 'production' ? await startDevelopmentStripeFake(env, indent) : null;
+  if (stripeFake) cleanups.push(() => stripeFake.close());
   const running = await startServer(env);
   cleanups.push(() => running.close());
+  stripeFake?.setWebhookUrl(`${running.url}/v1/webhooks/stripe`);
   console.log(`\n  Ohmstead is running at \x1b[1m${running.url}\x1b[0m`);
   console.log(`  API document: ${running.url}/openapi.json   Health: ${running.url}/healthz`);
   console.log(`  Demo organization: ${demo.organization.name} (invented)`);

@@ -4,11 +4,15 @@
  * idempotency keys replay, the pages pay or decline, and the events it sends verify with the SDK's own
  * `constructEvent` under the webhook secret.
  */
+import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer, type IncomingMessage, type Server } from 'node:http';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { planPrices, startStripeFake, TEST_CARDS, type StripeFake } from './stripe-fake.ts';
+import { parseEnv } from '../env.ts';
+import { planPrices, startDevelopmentStripeFake, startStripeFake, TEST_CARDS, type StripeFake } from './stripe-fake.ts';
 
 const SECRET = 'sk_test_fake_suite';
 const WHSEC = 'whsec_fake_suite';
@@ -246,5 +250,35 @@ describe('webhook signatures', () => {
     await fake.settle();
     expect(received.filter((r) => r.error !== null)).toEqual([]);
     expect(fake.deliveries.every((d) => d.status === 200 && d.attempt === 1)).toBe(true);
+  });
+});
+
+describe('development start', () => {
+  it('when started for development, then it serves on the configured port and keeps its state across a restart', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'ohmstead-stripe-fake-'));
+    const stateFile = join(dir, 'state.json');
+    const probe = createServer();
+    await new Promise<void>((resolve) => probe.listen(0, '127.0.0.1', resolve));
+    const port = (probe.address() as AddressInfo).port;
+    await new Promise<void>((resolve) => probe.close(() => resolve()));
+    const env = parseEnv({ DATABASE_URL: 'postgres://unused', STRIPE_API_PORT: String(port) });
+    const lines: string[] = [];
+    try {
+      const first = await startDevelopmentStripeFake(env, (l) => lines.push(l), stateFile);
+      expect(first?.url).toBe(`http://127.0.0.1:${port}`);
+      const client = new Stripe(env.STRIPE_SECRET_KEY, { apiVersion: API_VERSION, host: '127.0.0.1', port, protocol: 'http', maxNetworkRetries: 0 });
+      const customer = await client.customers.create({ email: 'kept@shop.example' });
+      // A second one on the same port steps aside instead of failing the start.
+      expect(await startDevelopmentStripeFake(env, (l) => lines.push(l), stateFile)).toBeNull();
+      expect(lines.at(-1)).toMatch(/is taken/);
+      await first!.close();
+      const second = await startDevelopmentStripeFake(env, () => undefined, stateFile);
+      expect((await client.customers.retrieve(customer.id)).id).toBe(customer.id);
+      await second!.close();
+      // Pointed at another host (real test-mode keys), nothing starts.
+      expect(await startDevelopmentStripeFake(parseEnv({ DATABASE_URL: 'postgres://unused', STRIPE_API_HOST: 'api.stripe.com', STRIPE_API_PORT: '443', STRIPE_API_PROTOCOL: 'https' }), () => undefined, stateFile)).toBeNull();
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 });

@@ -32,10 +32,14 @@
  */
 import express, { type NextFunction, type Request, type Response } from 'express';
 import { createHash, randomBytes } from 'node:crypto';
+import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import type { Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
+import { dirname } from 'node:path';
 import Stripe from 'stripe';
 import { plans } from '#shared/plans.ts';
+import type { Env } from '../env.ts';
+import { STRIPE_API_VERSION } from '../modules/billing/stripe-client.ts';
 
 export interface FakePrice {
   id: string;
@@ -70,6 +74,8 @@ export interface StripeFakeOptions {
   retryDelayMs?: number;
   /** Called for each delivery attempt (for logs). */
   onDelivery?: (d: Delivery) => void;
+  /** Development: keep customers, subscriptions and invoices in this JSON file across restarts. */
+  stateFile?: string;
 }
 
 export interface Delivery {
@@ -211,7 +217,7 @@ export interface StripeFake {
 }
 
 export async function startStripeFake(options: StripeFakeOptions): Promise<StripeFake> {
-  const apiVersion = options.apiVersion ?? '2026-10-28.endive';
+  const apiVersion = options.apiVersion ?? STRIPE_API_VERSION;
   const clockMs = options.clock ?? Date.now;
   const nowS = () => Math.floor(clockMs() / 1000);
   const attempts = Math.max(1, options.deliveryAttempts ?? 3);
@@ -231,6 +237,21 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   const deliveries: Delivery[] = [];
   let invoiceCounter = 0;
   let queue: Promise<void> = Promise.resolve();
+
+  // ---------------------------------------------------------------- optional persistence (development)
+  const stores = { customers, cards, sessions, subscriptions, invoices, portalSessions } as Record<string, Map<string, unknown>>;
+  if (options.stateFile && existsSync(options.stateFile)) {
+    const saved = JSON.parse(readFileSync(options.stateFile, 'utf8')) as { invoiceCounter?: number; stores?: Record<string, Array<[string, unknown]>> };
+    for (const [name, entries] of Object.entries(saved.stores ?? {})) for (const [k, v] of entries) stores[name]?.set(k, v);
+    invoiceCounter = saved.invoiceCounter ?? 0;
+  }
+  function persist() {
+    if (!options.stateFile) return;
+    mkdirSync(dirname(options.stateFile), { recursive: true });
+    const data = { invoiceCounter, stores: Object.fromEntries(Object.entries(stores).map(([name, map]) => [name, [...map.entries()]])) };
+    writeFileSync(`${options.stateFile}.tmp`, JSON.stringify(data));
+    renameSync(`${options.stateFile}.tmp`, options.stateFile);
+  }
 
   // ---------------------------------------------------------------- objects
   function priceObject(p: FakePrice): Obj {
@@ -571,6 +592,10 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
   app.disable('x-powered-by');
   app.set('query parser', 'extended');
   app.use(express.urlencoded({ extended: true, limit: '200kb', parameterLimit: 2000 }));
+  app.use((req, res, next) => {
+    if (req.method !== 'GET') res.on('finish', persist);
+    next();
+  });
 
   const api = express.Router();
   api.use((req, res, next) => {
@@ -1029,12 +1054,14 @@ ${subSection}${cardSection}${invoiceSection}${testSection}`,
     sign,
     renew(subscriptionId) {
       renew(subscriptionId);
+      persist();
     },
     setCard(customerId, cardNumber) {
       requireCustomer(customerId);
       const card = cardFrom(cardNumber);
       if (card instanceof FakeError) throw card;
       cards.set(customerId, card);
+      persist();
     },
     subscription(id) {
       const s = subscriptions.get(id);
@@ -1047,4 +1074,35 @@ ${subSection}${cardSection}${invoiceSection}${testSection}`,
       });
     },
   };
+}
+
+const LOOPBACK_HOSTS = new Set(['127.0.0.1', 'localhost', '::1']);
+
+/**
+ * `npm start` in development: the fake on the address the billing configuration points at, with its
+ * state kept in .data/ across restarts. Null when the configuration points elsewhere (real test-mode keys
+ * and STRIPE_API_HOST=api.stripe.com) or when the port is taken (another checkout's fake).
+ */
+export async function startDevelopmentStripeFake(env: Env, log: (line: string) => void, stateFile = '.data/stripe-fake.json'): Promise<StripeFake | null> {
+  if (!LOOPBACK_HOSTS.has(env.STRIPE_API_HOST) || env.STRIPE_API_PROTOCOL !== 'http') return null;
+  try {
+    const fake = await startStripeFake({
+      host: env.STRIPE_API_HOST,
+      port: env.STRIPE_API_PORT,
+      secretKey: env.STRIPE_SECRET_KEY,
+      webhookSecret: env.STRIPE_WEBHOOK_SECRET,
+      prices: planPrices({ builder: env.STRIPE_PRICE_BUILDER, scale: env.STRIPE_PRICE_SCALE }),
+      apiVersion: STRIPE_API_VERSION,
+      stateFile,
+      onDelivery: (d) => {
+        if (d.status !== 200) log(`Stripe stand-in: ${d.type} delivery ${d.attempt} answered ${d.status}`);
+      },
+    });
+    log(`Stripe stand-in listening on ${fake.url} (test checkout and portal; card 4242 4242 4242 4242 pays).`);
+    return fake;
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code !== 'EADDRINUSE') throw error;
+    log(`Port ${env.STRIPE_API_PORT} is taken: billing talks to whatever listens there (another Ohmstead's Stripe stand-in?).`);
+    return null;
+  }
 }
