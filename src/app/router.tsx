@@ -22,6 +22,7 @@ const built: Record<string, ReturnType<typeof lazyPage>> = {
   '/team': lazyPage(async () => ({ Component: (await import('../features/team/components/team-page.tsx')).TeamPage })),
   '/audit': lazyPage(async () => ({ Component: (await import('../features/audit/components/audit-page.tsx')).AuditPage })),
   '/settings': lazyPage(async () => ({ Component: (await import('../features/organization/components/settings-page.tsx')).SettingsPage })),
+  '/billing': lazyPage(async () => ({ Component: (await import('../features/billing/components/billing-page.tsx')).BillingPage })),
 };
 
 const router = createBrowserRouter([

@@ -10,6 +10,7 @@ import { useZodForm } from '../../../lib/use-zod-form.ts';
 import { useResendVerification } from '../api/resend-verification.ts';
 import { useSignIn } from '../api/sign-in.ts';
 import { AuthLayout } from './auth-layout.tsx';
+import { PricingSection } from '../../billing/components/pricing-section.tsx';
 
 /** Only same-site paths are followed after sign-in (no open redirect). */
 export function safeNext(next: string | null): string {
@@ -83,6 +84,7 @@ export function SignInPage() {
           </Link>
         </div>
       </form>
+      <PricingSection />
     </AuthLayout>
   );
 }
