@@ -125,6 +125,8 @@ class FakeError extends Error {
   }
 }
 
+const newestInvoiceFirst = (a: Record<string, unknown>, b: Record<string, unknown>) =>
+  Number(b.created) - Number(a.created) || String(b.number).localeCompare(String(a.number));
 const newId = (prefix: string) => `${prefix}_${randomBytes(18).toString('base64url').replace(/[-_]/g, '').slice(0, 24)}`;
 const clone = <T>(v: T): T => structuredClone(v);
 
@@ -780,7 +782,7 @@ export async function startStripeFake(options: StripeFakeOptions): Promise<Strip
       .filter((i) => !q.customer || i.customer === q.customer)
       .filter((i) => !q.subscription || ((i.parent as Obj).subscription_details as Obj).subscription === q.subscription)
       .filter((i) => !q.status || i.status === q.status)
-      .sort((a, b) => Number(b.created) - Number(a.created) || String(b.number).localeCompare(String(a.number)));
+      .sort(newestInvoiceFirst);
     res.json(list('/v1/invoices', items, q));
   });
 
@@ -872,7 +874,7 @@ ${s.cancel_url ? `<p><a href="${escapeHtml(s.cancel_url)}">Cancel and go back</a
     const card = cards.get(customerId);
     const subs = [...subscriptions.values()].filter((s) => s.customer === customerId).sort((a, b) => Number(b.created) - Number(a.created));
     const live = subs.find((s) => s.status !== 'canceled' && s.status !== 'incomplete_expired');
-    const customerInvoices = [...invoices.values()].filter((i) => i.customer === customerId).sort((a, b) => Number(b.created) - Number(a.created));
+    const customerInvoices = [...invoices.values()].filter((i) => i.customer === customerId).sort(newestInvoiceFirst);
     const action = (name: string) => `/portal/${escapeHtml(p.id)}/${name}`;
     let subSection = '<section><h2>Subscription</h2><p>No active subscription.</p></section>';
     if (live) {

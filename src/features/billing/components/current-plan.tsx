@@ -30,7 +30,7 @@ export function CurrentPlan({ data }: { data: BillingOverview }) {
               Subscription: <span className="font-medium">{statusWords[subscription.status] ?? subscription.status}</span>
               {subscription.status !== 'canceled' && subscription.currentPeriodEnd ? (
                 <>
-                  {subscription.cancelAtPeriodEnd ? ', ends on ' : ', renews on '}
+                  {subscription.cancelAtPeriodEnd ? ', ends on ' : ['past_due', 'unpaid'].includes(subscription.status) ? ', current period ends on ' : ', renews on '}
                   <time dateTime={subscription.currentPeriodEnd} className="font-mono">
                     {formatDay(subscription.currentPeriodEnd)}
                   </time>
