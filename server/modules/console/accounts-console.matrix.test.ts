@@ -18,11 +18,16 @@ import { giveBillingAccount, startBillingFake, type BillingFake } from '../billi
 
 // Billing routes talk to the payment provider: the Stripe-shaped fake starts first and the app is pointed at it.
 let billingFake: BillingFake;
+let envBeforeBilling: Record<string, string | undefined> = {};
 beforeAll(async () => {
   billingFake = await startBillingFake();
+  envBeforeBilling = Object.fromEntries(Object.keys(billingFake.env).map((k) => [k, process.env[k]]));
   Object.assign(process.env, billingFake.env);
 });
-afterAll(() => billingFake.close());
+afterAll(async () => {
+  for (const [k, v] of Object.entries(envBeforeBilling)) if (v === undefined) delete process.env[k]; else process.env[k] = v;
+  await billingFake.close();
+});
 let kit: ConsoleKit;
 beforeAll(async () => {
   kit = await startConsoleKit();
