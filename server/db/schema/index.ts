@@ -9,3 +9,4 @@ export * from './email-tokens.ts';
 export * from './invitations.ts';
 export * from './auth-throttles.ts';
 export * from './billing.ts';
+export * from './catalog.ts';
