@@ -40,6 +40,15 @@ export class KeyResolver {
     private readonly clock: () => number = Date.now,
   ) {}
 
+  /**
+   * The cached answer for a key, synchronously, when it is fresh; undefined when the database must be
+   * asked (then call `resolve`). Keeps the hot path free of promises.
+   */
+  resolveCached(presentedKey: string): ResolvedKey | null | undefined {
+    const hit = this.cache.get(hashApiKey(presentedKey, this.hashSecret));
+    return hit && this.clock() - hit.fetchedAtMs < this.ttlMs ? hit.value : undefined;
+  }
+
   async resolve(presentedKey: string): Promise<ResolvedKey | null> {
     const hash = hashApiKey(presentedKey, this.hashSecret);
     const now = this.clock();

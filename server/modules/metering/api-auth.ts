@@ -31,28 +31,32 @@ function unauthorized(detail: string): AppError {
 
 /** CORS for the public API: preflights and response headers for origins listed on active embed keys. */
 export function v1Cors(resolver: KeyResolver): RequestHandler {
-  return async (req: Request, res: Response, next: NextFunction) => {
+  return (req: Request, res: Response, next: NextFunction) => {
     const origin = req.get('origin');
     if (!origin) {
       next();
       return;
     }
-    res.vary('Origin');
-    const listed = (await resolver.embedOrigins()).has(origin);
-    if (listed) {
-      res.setHeader('Access-Control-Allow-Origin', origin);
-      res.setHeader('Access-Control-Expose-Headers', EXPOSED_HEADERS);
-    }
-    if (req.method === 'OPTIONS') {
-      if (!listed) throw new AppError('forbidden', `The origin ${origin} is not listed on any embed key.`);
-      res.setHeader('Access-Control-Allow-Methods', 'GET, POST');
-      res.setHeader('Access-Control-Allow-Headers', ALLOWED_HEADERS);
-      res.setHeader('Access-Control-Max-Age', '7200');
-      res.status(204).end();
-      return;
-    }
-    next();
+    return answerCors(resolver, origin, req, res, next);
   };
+}
+
+async function answerCors(resolver: KeyResolver, origin: string, req: Request, res: Response, next: NextFunction) {
+  res.vary('Origin');
+  const listed = (await resolver.embedOrigins()).has(origin);
+  if (listed) {
+    res.setHeader('Access-Control-Allow-Origin', origin);
+    res.setHeader('Access-Control-Expose-Headers', EXPOSED_HEADERS);
+  }
+  if (req.method === 'OPTIONS') {
+    if (!listed) throw new AppError('forbidden', `The origin ${origin} is not listed on any embed key.`);
+    res.setHeader('Access-Control-Allow-Methods', 'GET, POST');
+    res.setHeader('Access-Control-Allow-Headers', ALLOWED_HEADERS);
+    res.setHeader('Access-Control-Max-Age', '7200');
+    res.status(204).end();
+    return;
+  }
+  next();
 }
 
 /**
@@ -60,13 +64,7 @@ export function v1Cors(resolver: KeyResolver): RequestHandler {
  * embed key may call.
  */
 export function requireApiKey(resolver: KeyResolver, options: { calculation: boolean }): RequestHandler {
-  return async (req, res, next) => {
-    const header = req.get('authorization');
-    if (!header) throw unauthorized('Send your API key as "Authorization: Bearer <key>".');
-    const presented = BEARER.exec(header)?.[1];
-    if (!presented) throw unauthorized('The Authorization header must read "Bearer <key>".');
-    if (!keyKindOf(presented)) throw unauthorized('That is not an Ohmstead API key (they start with ohs_srv_ or ohs_emb_).');
-    const key = await resolver.resolve(presented);
+  const admit = (req: Request, res: Response, next: NextFunction, key: ResolvedKey | null) => {
     if (!key) throw unauthorized('This API key is not recognised.');
     if (key.revokedAt) throw unauthorized('This API key has been revoked.');
     if (key.expiresAt && key.expiresAt.getTime() <= Date.now()) throw unauthorized('This API key has expired.');
@@ -81,6 +79,17 @@ export function requireApiKey(resolver: KeyResolver, options: { calculation: boo
     }
     res.locals.apiKey = key;
     next();
+  };
+  return (req, res, next) => {
+    const header = req.get('authorization');
+    if (!header) throw unauthorized('Send your API key as "Authorization: Bearer <key>".');
+    const presented = BEARER.exec(header)?.[1];
+    if (!presented) throw unauthorized('The Authorization header must read "Bearer <key>".');
+    if (!keyKindOf(presented)) throw unauthorized('That is not an Ohmstead API key (they start with ohs_srv_ or ohs_emb_).');
+    // A fresh cached key is checked without a promise; otherwise the database is asked.
+    const cached = resolver.resolveCached(presented);
+    if (cached !== undefined) return admit(req, res, next, cached);
+    return resolver.resolve(presented).then((key) => admit(req, res, next, key));
   };
 }
 

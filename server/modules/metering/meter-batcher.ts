@@ -3,7 +3,9 @@
  * while one batch is being written go together into the next batch, which is counted in a single
  * statement (`meter_batch`, see drizzle/0002_meter_batch.sql) and committed before any of them is
  * answered. So no 2xx leaves without a durable count, nothing is counted twice, and under load the cost
- * is one round trip per batch rather than per call. At most one batch per instance is in flight.
+ * is one round trip per batch rather than per call. A few batches per instance may be in flight at once
+ * (`maxInFlight`, default 2): the next batch is on its way while the previous one commits, and batches of
+ * one organization still serialize on its counter rows in the database, always locked in the same order.
  */
 import type pg from 'pg';
 
@@ -36,34 +38,42 @@ interface Pending {
 
 export class MeterBatcher {
   private queue: Pending[] = [];
-  private flushing = false;
+  private inFlight = 0;
+  private scheduled = false;
   private idle: Array<() => void> = [];
   /** Batches written and calls in them, for diagnostics and benchmarks. */
   readonly stats = { batches: 0, calls: 0, largestBatch: 0 };
 
   constructor(
     private readonly pool: pg.Pool,
-    private readonly options: { maxBatch?: number; at?: () => Date | null } = {},
+    private readonly options: { maxBatch?: number; maxInFlight?: number; at?: () => Date | null } = {},
   ) {}
+
+  private schedule(): void {
+    if (this.scheduled || this.queue.length === 0 || this.inFlight >= (this.options.maxInFlight ?? 2)) return;
+    this.scheduled = true;
+    // Let the requests already being processed in this turn of the event loop join the batch.
+    setImmediate(() => {
+      this.scheduled = false;
+      if (this.queue.length > 0) void this.flush();
+    });
+  }
 
   enqueue(item: MeterItem): Promise<MeterResult> {
     return new Promise((resolve, reject) => {
       this.queue.push({ item, resolve, reject });
-      if (!this.flushing) {
-        this.flushing = true;
-        // Let the requests already being processed in this turn of the event loop join the batch.
-        setImmediate(() => void this.flush());
-      }
+      this.schedule();
     });
   }
 
   /** Resolves when nothing is queued or being written. */
   drain(): Promise<void> {
-    if (!this.flushing && this.queue.length === 0) return Promise.resolve();
+    if (this.inFlight === 0 && this.queue.length === 0) return Promise.resolve();
     return new Promise((resolve) => this.idle.push(resolve));
   }
 
   private async flush(): Promise<void> {
+    this.inFlight += 1;
     const batch = this.queue.splice(0, this.options.maxBatch ?? 1000);
     const items = batch.map(({ item }, i) => ({
       i,
@@ -102,12 +112,9 @@ export class MeterBatcher {
     } catch (error) {
       for (const p of batch) p.reject(error);
     } finally {
-      if (this.queue.length > 0) {
-        setImmediate(() => void this.flush());
-      } else {
-        this.flushing = false;
-        for (const resolve of this.idle.splice(0)) resolve();
-      }
+      this.inFlight -= 1;
+      if (this.queue.length > 0) this.schedule();
+      else if (this.inFlight === 0) for (const resolve of this.idle.splice(0)) resolve();
     }
   }
 }

@@ -129,12 +129,16 @@ async function replayStored(db: Db, res: Response, key: string, requestHash: str
  */
 function idempotency(db: Db): RequestHandler {
   const inFlight = new Set<string>();
-  return async (req, res, next) => {
+  return (req, res, next) => {
     const header = req.get('idempotency-key');
     if (header === undefined) {
       next();
       return;
     }
+    return withIdempotencyKey(header, req, res, next);
+  };
+
+  async function withIdempotencyKey(header: string, req: Request, res: Response, next: () => void) {
     const key = IDEMPOTENCY_KEY.exec(header.trim())?.[1];
     if (!key) {
       throw new AppError('malformed-request', 'Idempotency-Key must be 1–255 printable ASCII characters, bare or in double quotes.', {
@@ -154,5 +158,5 @@ function idempotency(db: Db): RequestHandler {
     res.on('close', () => inFlight.delete(slot));
     res.locals.idempotency = { key, requestHash };
     next();
-  };
+  }
 }

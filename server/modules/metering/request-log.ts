@@ -38,8 +38,16 @@ export class RequestLogWriter {
     this.timer = undefined;
     const entries = this.buffer.splice(0);
     if (entries.length === 0) return this.writing;
+    // One statement over column arrays: cheap to build and to plan, whatever the batch size.
+    const col = <K extends keyof Entry>(k: K) => entries.map((e) => e[k] ?? null);
     this.writing = this.writing
-      .then(() => this.db.insert(requestLog).values(entries))
+      .then(() =>
+        this.db.$client.query(
+          `insert into request_log (organization_id, api_key_id, method, endpoint, status, duration_ms, request_id)
+           select * from unnest($1::uuid[], $2::uuid[], $3::text[], $4::text[], $5::smallint[], $6::int[], $7::text[])`,
+          [col('organizationId'), col('apiKeyId'), col('method'), col('endpoint'), col('status'), col('durationMs'), col('requestId')],
+        ),
+      )
       .then(
         () => undefined,
         (err: unknown) => this.logger.warn({ err, entries: entries.length }, 'request log entries dropped'),
