@@ -23,6 +23,7 @@ import { keysConsoleRouter } from './modules/keys/keys.routes.ts';
 import { createMailer, type Mailer } from './modules/mail/mailer.ts';
 import { createQuotaNotifier } from './modules/usage/quota-notifier.ts';
 import { usageConsoleRouter } from './modules/usage/usage-console.routes.ts';
+import { playgroundConsoleRouter } from './modules/playground/playground.routes.ts';
 import { createBilling } from './modules/billing/billing.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
 
@@ -66,6 +67,8 @@ export function createApp(deps: AppDeps) {
   app.billing = billing;
   const openApiDocument = buildOpenApiDocument();
   app.disable('x-powered-by');
+  // Weak ETags hash every JSON body; API answers are not cached by validators, so skip the work.
+  app.set('etag', false);
   app.set('query parser', 'simple');
   if (env.TRUST_PROXY_HOPS > 0) app.set('trust proxy', env.TRUST_PROXY_HOPS);
 
@@ -109,6 +112,7 @@ export function createApp(deps: AppDeps) {
   app.use('/console-api', keysConsoleRouter({ db, hashSecret: platform.hashSecret, resolver: platform.resolver }));
   app.use('/console-api', usageConsoleRouter({ db }));
   app.use('/console-api', billing.consoleRouter);
+  app.use('/console-api', playgroundConsoleRouter({ db, platform }));
 
   const openApiJson = JSON.stringify(openApiDocument);
   app.get('/openapi.json', (_req, res) => {

@@ -19,3 +19,4 @@ import '../modules/charge/charge.openapi.ts';
 import '../modules/capacity-tests/capacity-tests.openapi.ts';
 import '../modules/chemistries/chemistries.openapi.ts';
 import '../modules/billing/billing.openapi.ts';
+import '../modules/playground/playground.openapi.ts';

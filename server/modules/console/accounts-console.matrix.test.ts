@@ -15,6 +15,8 @@ import { consoleRoutes as registeredConsoleRoutes, type ConsoleAccess } from './
 import { createOrganizationWith, createUser, sessionCookie, startConsoleKit, TEST_PASSWORD, uniqueEmail, type ConsoleKit } from './console.test-kit.ts';
 import { billingAccounts } from '../../db/schema/index.ts';
 import { giveBillingAccount, startBillingFake, type BillingFake } from '../billing/billing.test-kit.ts';
+import { playgroundCalculations } from '../playground/playground.calcs.ts';
+import { createTestKey } from '../../../tests/setup/fixtures.ts';
 
 // Billing routes talk to the payment provider: the Stripe-shaped fake starts first and the app is pointed at it.
 let billingFake: BillingFake;
@@ -252,6 +254,15 @@ const rows: Row[] = [
     },
     check: (_w, res) => void (res.status === 201 && expect(res.body.url).toMatch(/\/portal\/bps_/)),
   },
+  // The playground runs a calculation under one of A's server keys; the outsider names A's key from B (404).
+  ...playgroundCalculations.map(
+    (c): Row => ({
+      method: 'post',
+      path: `/console-api${c.path}`,
+      send: async (w) => ({ url: `/console-api${c.path}`, body: { keyId: (await createTestKey(kit.db, kit.app.platform!.hashSecret, w.a.org.id)).key.id, input: c.exampleInput } }),
+      override: { outsider: 404 },
+    }),
+  ),
 ];
 
 const document = buildOpenApiDocument();
