@@ -21,6 +21,7 @@ import { fusesRouter } from './fuses/fuses.routes.ts';
 import { parallelRouter } from './parallel/parallel.routes.ts';
 import { compatibilityRouter } from './compatibility/compatibility.routes.ts';
 import { conductorsRouter } from './conductors/conductors.routes.ts';
+import { catalogApiRouter } from './catalog/catalog.routes.ts';
 
 /** Checks the path and method against the routes documented in the OpenAPI document. */
 function knownRoutesOnly(documentedPaths: Record<string, object>): RequestHandler {
@@ -41,6 +42,12 @@ function knownRoutesOnly(documentedPaths: Record<string, object>): RequestHandle
   };
 }
 
+/**
+ * Read-only GET paths an embed key may call (from its listed origins, like a calculation): the public
+ * data its widgets show. Every other GET (usage, reference data) still needs a server key.
+ */
+const EMBED_READABLE_PATHS = new Set(['/catalog']);
+
 export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Record<string, object> }) {
   const { db, platform } = deps;
   const router = Router();
@@ -49,9 +56,11 @@ export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Re
   router.use(knownRoutesOnly(deps.documentedPaths));
   const calculationKey = requireApiKey(platform.resolver, { calculation: true });
   const referenceKey = requireApiKey(platform.resolver, { calculation: false });
-  router.use((req, res, next) => (req.method === 'POST' ? calculationKey : referenceKey)(req, res, next));
+  router.use((req, res, next) => (req.method === 'POST' || (req.method === 'GET' && EMBED_READABLE_PATHS.has(req.path)) ? calculationKey : referenceKey)(req, res, next));
   // CSV bodies (capacity-test logs) are read here, before idempotency hashes the payload.
-  router.post('/*path', express.text({ type: 'text/csv', limit: CSV_LIMIT_BYTES }), platform.metering.idempotency, platform.metering.meterCalls);
+  const csvText = express.text({ type: 'text/csv', limit: CSV_LIMIT_BYTES });
+  const readCsv: RequestHandler = (req, res, next) => (req.headers['content-type']?.startsWith('text/csv') ? csvText(req, res, next) : next());
+  router.post('/*path', readCsv, platform.metering.idempotency, platform.metering.meterCalls);
 
   router.use(usageRouter(db));
   // Calculation and reference modules, one line each:
@@ -65,5 +74,6 @@ export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Re
   router.use(parallelRouter());
   router.use(compatibilityRouter());
   router.use(conductorsRouter());
+  router.use(catalogApiRouter({ db }));
   return router;
 }

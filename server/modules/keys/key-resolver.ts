@@ -31,6 +31,11 @@ const MAX_ENTRIES = 10_000;
 
 export class KeyResolver {
   private cache = new Map<string, Entry>();
+  /**
+   * The same entries by the presented key itself, so a hot key skips the HMAC too. It holds only keys
+   * presented within the last TTL (they are in this process's memory while their requests run anyway).
+   */
+  private recent = new Map<string, Entry>();
   private origins: { value: Set<string>; fetchedAtMs: number } | undefined;
 
   constructor(
@@ -45,7 +50,7 @@ export class KeyResolver {
    * asked (then call `resolve`). Keeps the hot path free of promises.
    */
   resolveCached(presentedKey: string): ResolvedKey | null | undefined {
-    const hit = this.cache.get(hashApiKey(presentedKey, this.hashSecret));
+    const hit = this.recent.get(presentedKey);
     return hit && this.clock() - hit.fetchedAtMs < this.ttlMs ? hit.value : undefined;
   }
 
@@ -53,7 +58,10 @@ export class KeyResolver {
     const hash = hashApiKey(presentedKey, this.hashSecret);
     const now = this.clock();
     const hit = this.cache.get(hash);
-    if (hit && now - hit.fetchedAtMs < this.ttlMs) return hit.value;
+    if (hit && now - hit.fetchedAtMs < this.ttlMs) {
+      this.recent.set(presentedKey, hit);
+      return hit.value;
+    }
     const row = await findKeyWithOrganizationByHash(this.db, hash);
     // The row was found by its hash; compare again in constant time as the stored-secret check.
     const value: ResolvedKey | null =
@@ -73,7 +81,10 @@ export class KeyResolver {
           }
         : null;
     if (this.cache.size >= MAX_ENTRIES) this.cache.clear();
-    this.cache.set(hash, { value, fetchedAtMs: now });
+    if (this.recent.size >= MAX_ENTRIES) this.recent.clear();
+    const entry = { value, fetchedAtMs: now };
+    this.cache.set(hash, entry);
+    this.recent.set(presentedKey, entry);
     return value;
   }
 
@@ -89,6 +100,7 @@ export class KeyResolver {
   /** Drops cached entries (after a change made by this instance, so it applies here at once). */
   invalidate(): void {
     this.cache.clear();
+    this.recent.clear();
     this.origins = undefined;
   }
 }

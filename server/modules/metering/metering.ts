@@ -34,7 +34,8 @@ export const IDEMPOTENCY_TTL_HOURS = 24;
 
 /** The endpoint a call is counted under: its path, e.g. "/v1/packs/energy" (the v1 API has no path parameters). */
 export function endpointOf(req: Request): string {
-  return `${req.baseUrl}${req.path}`.replace(/(.)\/$/, '$1');
+  const path = `${req.baseUrl}${req.path}`;
+  return path.length > 1 && path.endsWith('/') ? path.slice(0, -1) : path;
 }
 
 export interface MeteringHooks {
