@@ -22,6 +22,8 @@ const built: Record<string, ReturnType<typeof lazyPage>> = {
   '/team': lazyPage(async () => ({ Component: (await import('../features/team/components/team-page.tsx')).TeamPage })),
   '/audit': lazyPage(async () => ({ Component: (await import('../features/audit/components/audit-page.tsx')).AuditPage })),
   '/settings': lazyPage(async () => ({ Component: (await import('../features/organization/components/settings-page.tsx')).SettingsPage })),
+  '/keys': lazyPage(async () => ({ Component: (await import('../features/keys/components/keys-page.tsx')).KeysPage })),
+  '/usage': lazyPage(async () => ({ Component: (await import('../features/usage/components/usage-page.tsx')).UsagePage })),
   '/billing': lazyPage(async () => ({ Component: (await import('../features/billing/components/billing-page.tsx')).BillingPage })),
 };
 

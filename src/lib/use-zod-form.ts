@@ -16,6 +16,27 @@ export function useZodForm<S extends z.ZodType>(schema: S) {
     first?.focus();
   };
 
+  /** Validates values assembled by the caller (for forms whose fields do not map one to one). */
+  const validate = useCallback(
+    (values: Record<string, unknown>, form?: HTMLFormElement | null): z.output<S> | null => {
+      const result = schema.safeParse(values);
+      setFormError(null);
+      if (result.success) {
+        setErrors({});
+        return result.data;
+      }
+      const next: Record<string, string> = {};
+      for (const issue of result.error.issues) {
+        const field = String(issue.path[0] ?? '');
+        if (!next[field]) next[field] = issue.message;
+      }
+      setErrors(next);
+      focusFirstInvalid(form ?? null, Object.keys(next));
+      return null;
+    },
+    [schema],
+  );
+
   const parse = useCallback(
     (form: HTMLFormElement, extra: Record<string, unknown> = {}): z.output<S> | null => {
       const values: Record<string, unknown> = { ...extra };
@@ -58,5 +79,5 @@ export function useZodForm<S extends z.ZodType>(schema: S) {
     setFormError(null);
   }, []);
 
-  return { errors, formError, parse, applyProblem, reset };
+  return { errors, formError, parse, validate, applyProblem, reset };
 }
