@@ -39,14 +39,19 @@ const serverKey = generateApiKey('server');
 }
 
 const server = spawn(process.execPath, ['--import', 'tsx', join(repoRoot, 'server', 'index.ts')], {
-  env: { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), LOG_LEVEL: 'warn', NODE_ENV: 'production', OHMSTEAD_KEY_HASH_SECRET: keyHashSecret(env), CONSOLE_DIST_DIR: '.data/no-console' },
+  env: { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), LOG_LEVEL: 'warn', OHMSTEAD_KEY_HASH_SECRET: keyHashSecret(env), CONSOLE_DIST_DIR: '.data/no-console' },
   stdio: ['ignore', 'inherit', 'inherit'],
 });
-for (let i = 0; i < 100; i += 1) {
-  const ok = await fetch(`${base}/healthz`).then((r) => r.ok).catch(() => false);
-  if (ok) break;
-  await new Promise((r) => setTimeout(r, 100));
+let up = false;
+for (let i = 0; i < 150 && !up && server.exitCode === null; i += 1) {
+  up = await fetch(`${base}/healthz`).then((r) => r.ok).catch(() => false);
+  if (!up) await new Promise((r) => setTimeout(r, 100));
 }
+if (!up) {
+  server.kill('SIGKILL');
+  throw new Error('The server did not come up for the benchmark (see its output above).');
+}
+process.once('exit', () => server.kill('SIGKILL'));
 
 const energyBody = JSON.stringify({ pack: { chemistry: 'lfp', seriesCells: 16, capacityAh: 100 }, depthOfDischargePct: 90, price: { amount: 1450, currency: 'USD' }, cycleLife: 4000 });
 
@@ -57,12 +62,12 @@ interface Run {
   other: number;
 }
 
-function autocannon(args: string[]): Run {
-  const result = spawnSync(process.execPath, [join(repoRoot, 'node_modules', 'autocannon', 'autocannon.js'), '--json', '-c', String(connections), '-d', String(durationS), ...args], {
+function autocannon(args: string[], seconds = durationS): Run {
+  const result = spawnSync(process.execPath, [join(repoRoot, 'node_modules', 'autocannon', 'autocannon.js'), '--json', '-c', String(connections), '-d', String(seconds), ...args], {
     encoding: 'utf8',
     maxBuffer: 64 * 1024 * 1024,
   });
-  if (result.status !== 0) throw new Error(result.stderr);
+  if (result.status !== 0 || !result.stdout.trim()) throw new Error(`autocannon failed (${result.status}): ${result.stderr.slice(-2000)}`);
   const json = JSON.parse(result.stdout) as { requests: { average: number }; latency: { p99: number }; '2xx': number; non2xx: number; errors: number };
   return { rps: json.requests.average, p99: json.latency.p99, ok: json['2xx'], other: json.non2xx + json.errors };
 }
@@ -71,8 +76,8 @@ const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.len
 const health: Run[] = [];
 const metered: Run[] = [];
 // Warm up both paths (JIT, connection pools, caches) before measuring.
-autocannon(['-d', '3', `${base}/healthz`]);
-const warm = autocannon(['-d', '3', '-m', 'POST', '-H', `Authorization=Bearer ${serverKey}`, '-H', 'Content-Type=application/json', '-b', energyBody, `${base}/v1/packs/energy`]);
+autocannon([`${base}/healthz`], 3);
+const warm = autocannon(['-m', 'POST', '-H', `Authorization=Bearer ${serverKey}`, '-H', 'Content-Type=application/json', '-b', energyBody, `${base}/v1/packs/energy`], 3);
 let metered2xx = warm.ok;
 for (let r = 0; r < rounds; r += 1) {
   health.push(autocannon([`${base}/healthz`]));
