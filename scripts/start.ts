@@ -3,12 +3,15 @@
  * database and migrations, the demo seed, the console build, then the API and console on one port.
  * Ctrl-C stops the server gracefully and then whatever this script started.
  */
+import { join } from 'node:path';
 import { step } from './bootstrap.mjs';
 import { buildConsoleIfStale } from './lib/console-build.ts';
-import { ensureDatabase, ensurePostgres } from './lib/postgres.ts';
+import { ensureDatabase, ensurePostgres, repoRoot } from './lib/postgres.ts';
 import { runMigrations } from '../server/db/migrate.ts';
 import { createDb } from '../server/db/client.ts';
 import { demo, seedDemo } from '../server/db/seed.ts';
+import { demoServerKey, seedDemoApiAccess } from '../server/modules/keys/keys.seed.ts';
+import { keyHashSecret } from '../server/modules/metering/platform.ts';
 import { EnvError, parseEnv } from '../server/env.ts';
 import { startSmtpCatcher } from '../server/fakes/smtp-catcher.ts';
 import { startDevelopmentStripeFake } from '../server/fakes/stripe-fake.ts';
@@ -62,7 +65,9 @@ try {
 
   step(4, 6, 'Demo data (invented)');
   const seedDb = createDb(databaseUrl, { max: 1 });
-  await seedDemo(seedDb.db);
+  const seeded = await seedDemo(seedDb.db);
+  const demoKey = demoServerKey(env.OHMSTEAD_DEMO_SERVER_KEY, join(repoRoot, '.data', 'demo-server-key'));
+  await seedDemoApiAccess(seedDb.db, { ...seeded, serverKey: demoKey, hashSecret: keyHashSecret(env), highLimits: env.OHMSTEAD_DEMO_HIGH_LIMITS });
   await seedDb.pool.end();
   indent(`Demo organization "${demo.organization.name}" is in place.`);
 
@@ -95,6 +100,7 @@ try {
   console.log(`  Demo organization: ${demo.organization.name} (invented)`);
   console.log(`  Demo sign-in: \x1b[1m${demo.owner.email}\x1b[0m with passphrase \x1b[1m${demo.password}\x1b[0m (owner)`);
   console.log(`    also ${demo.team.map((m) => `${m.email} (${m.role})`).join(', ')}, same passphrase`);
+  console.log(`  Demo server key: \x1b[1m${demoKey}\x1b[0m${env.OHMSTEAD_DEMO_HIGH_LIMITS ? ' (high limits for benchmarks)' : ''}`);
   if (mailbox) console.log(`  Development mailbox (mail the server sent): ${running.url}${mailbox}`);
   console.log('  Press Ctrl-C to stop.\n');
 } catch (error) {
