@@ -10,6 +10,7 @@
  *   await e2e.close();
  */
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { sql } from 'drizzle-orm';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
@@ -43,7 +44,11 @@ export async function startE2E(options: { env?: Record<string, string> } = {}) {
     ...options.env,
   });
   const { db, pool } = createDb(env.DATABASE_URL, { max: 4 });
-  const seeded = await seedDemo(db);
+  // Several browser test files share this run's database: seeding is idempotent, but not concurrent.
+  const seeded = await db.transaction(async (tx) => {
+    await tx.execute(sql`select pg_advisory_xact_lock(7101)`);
+    return seedDemo(tx as unknown as typeof db);
+  });
   const serverKey = generateApiKey('server');
   await seedDemoApiAccess(db, { ...seeded, serverKey, hashSecret: keyHashSecret(env), highLimits: true });
   const server = await startServer(env);
