@@ -24,6 +24,8 @@ import { createMailer, type Mailer } from './modules/mail/mailer.ts';
 import { createQuotaNotifier } from './modules/usage/quota-notifier.ts';
 import { usageConsoleRouter } from './modules/usage/usage-console.routes.ts';
 import { playgroundConsoleRouter } from './modules/playground/playground.routes.ts';
+import { catalogConsoleRouter, catalogUploadRouter } from './modules/catalog/catalog.routes.ts';
+import { widgetsRouter } from './modules/widgets/widgets.routes.ts';
 import { createBilling } from './modules/billing/billing.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
 
@@ -107,12 +109,17 @@ export function createApp(deps: AppDeps) {
   app.use(problemsRouter());
   app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {} }));
   // The console API: CSRF defence, no-store and the session context for all of it, then the routers.
+  // The catalog's CSV upload is multipart, which consoleSecurity refuses: it brings the same defences itself.
+  app.use('/console-api', catalogUploadRouter({ env, db }));
   app.use('/console-api', ...consoleSecurity({ env, db }));
   app.use('/console-api', accountsConsoleRouter({ env, db, logger, mailer }));
   app.use('/console-api', keysConsoleRouter({ db, hashSecret: platform.hashSecret, resolver: platform.resolver }));
   app.use('/console-api', usageConsoleRouter({ db }));
   app.use('/console-api', billing.consoleRouter);
   app.use('/console-api', playgroundConsoleRouter({ db, platform }));
+  app.use('/console-api', catalogConsoleRouter({ db }));
+  // The embeddable widget bundle (versioned and major-alias paths) and its access check.
+  app.use(widgetsRouter({ resolver: platform.resolver }));
 
   const openApiJson = JSON.stringify(openApiDocument);
   app.get('/openapi.json', (_req, res) => {

@@ -5,6 +5,7 @@
  */
 import { sql } from 'drizzle-orm';
 import { hashPassword } from '../modules/auth/password.ts';
+import { seedDemoCatalog } from '../modules/catalog/catalog.seed.ts';
 import type { Db } from './client.ts';
 import { memberships, organizations, users } from './schema/index.ts';
 
@@ -48,6 +49,7 @@ export async function seedDemo(db: Db): Promise<{ organizationId: string; ownerU
       const userId = await person(member);
       await tx.insert(memberships).values({ organizationId: org!.id, userId, role: member.role }).onConflictDoNothing();
     }
+    await seedDemoCatalog(tx, org!.id);
     return { organizationId: org!.id, ownerUserId };
   });
 }

@@ -20,3 +20,4 @@ import '../modules/capacity-tests/capacity-tests.openapi.ts';
 import '../modules/chemistries/chemistries.openapi.ts';
 import '../modules/billing/billing.openapi.ts';
 import '../modules/playground/playground.openapi.ts';
+import '../modules/catalog/catalog.openapi.ts';

@@ -5557,6 +5557,1322 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/v1/catalog": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The key's organization's catalog
+         * @description The host units and packs the organization lists in the console, each list ordered by name: what its widgets offer to pick from. Read-only; needs a key, not metered. Embed keys may read it from their listed origins (a browser may keep the answer for 60 s).
+         */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The catalog. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CatalogResult"];
+                    };
+                };
+                /** @description Missing, malformed, unknown, revoked or expired API key. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An embed key used from an origin it does not list (or without one). */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/v1/compatibility/matrix": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Check every host × pack pair
+         * @description The compatibility check (`/v1/compatibility/check`) for every pair of host units and packs: the key's catalog when `hosts` or `packs` is left out (optionally only the SKUs in `hostSkus` / `packSkus`), or the lists sent. Each pair carries its methods and findings and a `verdict`, the best among its methods. Packs without a state of charge are taken at `defaultStateOfChargePct` (100). At most 2000 pairs per call; one call is metered as one calculation.
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["CompatibilityMatrixInput"];
+                };
+            };
+            responses: {
+                /** @description The result, with checks, cautions and the basis it was worked out on. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CompatibilityMatrixResult"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Missing, malformed, unknown, revoked or expired API key. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The key may not call this endpoint from here (embed key origin or scope). */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is larger than accepted. */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Rate limit or monthly quota reached; see Retry-After and the RateLimit headers. */
+                429: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The catalog
+         * @description The organization's host units and packs, each list ordered by name.
+         *
+         *     Roles: owner, admin, developer, viewer (in the active organization).
+         */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The catalog. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["Catalog"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Your role in the active organization does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/matrix": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Compatibility matrix of the catalog
+         * @description The compatibility check for every host unit × pack of the catalog (packs taken at full charge), as `POST /v1/compatibility/matrix` answers it. Not metered: it reads only the organization's own catalog. At most 2000 pairs (422 beyond).
+         *
+         *     Roles: owner, admin, developer, viewer (in the active organization).
+         */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The matrix. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CompatibilityMatrixResult"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Your role in the active organization does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The catalog has no host units or no packs, or too many pairs. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/hosts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Add a host unit
+         * @description Adds a host unit to the catalog (at most 500). Audited as catalog.item_created.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["CatalogHostInput"];
+                };
+            };
+            responses: {
+                /** @description The host unit. */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CatalogHost"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The SKU is already in the catalog, or the catalog is full. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/hosts/{itemId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        /**
+         * Replace a host unit
+         * @description Replaces every field of the host unit (fields left out are cleared). Audited as catalog.item_updated.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        put: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path: {
+                    /** @description The item id. */
+                    itemId: string;
+                };
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["CatalogHostInput"];
+                };
+            };
+            responses: {
+                /** @description The host unit. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CatalogHost"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No such item in this organization. */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The SKU belongs to another item. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        post?: never;
+        /**
+         * Delete a host unit
+         * @description Deletes the item. Audited as catalog.item_deleted.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        delete: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path: {
+                    /** @description The item id. */
+                    itemId: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Deleted. */
+                204: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content?: never;
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No such item in this organization. */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/hosts/export": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Export the host units as CSV
+         * @description Every host unit as a CSV file (UTF-8, header row, CRLF) in the columns the import reads: `sku`, `name`, `url`, `dcInputMinVoltageV`, `dcInputMaxVoltageV`, `dcInputMaxCurrentA`, `dcInputMaxPowerW`, `dcInputEfficiencyPct`, `batteryChemistry`, `batterySeriesCells`, `batteryCapacityAh`. Text that a spreadsheet would run as a formula is prefixed with `'`.
+         *
+         *     Roles: owner, admin, developer, viewer (in the active organization).
+         */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The CSV file. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "text/csv": string;
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Your role in the active organization does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/hosts/import": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Import host units from CSV
+         * @description Uploads one CSV file (multipart/form-data, field `file`, a .csv name or a CSV media type, UTF-8, at most 512 KiB and 500 rows). Header: any of `sku`, `name`, `url`, `dcInputMinVoltageV`, `dcInputMaxVoltageV`, `dcInputMaxCurrentA`, `dcInputMaxPowerW`, `dcInputEfficiencyPct`, `batteryChemistry`, `batterySeriesCells`, `batteryCapacityAh` (`sku` and `name` required; blank cells leave a field out). Every row is validated with the same schema as the form; one problem anywhere refuses the whole file with each problem named by row, line and column (`errors[]` and `rowErrors[]`). Otherwise every row is added or, by SKU, updated in one transaction (`mode=replace` also deletes the SKUs the file leaves out). Audited as catalog.imported.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        post: {
+            parameters: {
+                query?: {
+                    /** @description merge: add new SKUs and update listed ones; replace: also delete the SKUs the file does not list. */
+                    mode?: "merge" | "replace";
+                };
+                header: {
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "multipart/form-data": {
+                        /**
+                         * Format: binary
+                         * @description The CSV file.
+                         */
+                        file: string;
+                    };
+                };
+            };
+            responses: {
+                /** @description What the import changed. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CatalogImportResult"];
+                    };
+                };
+                /** @description The upload could not be read (a broken multipart body, extra parts). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request, or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The catalog would hold more than 500 items of the kind. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The file is larger than 512 KiB. */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not multipart/form-data, or the file is not CSV text (another type, binary, not UTF-8). */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No file, or rows that fail validation: `rowErrors[]` names each by row, line and column; nothing was imported. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/packs": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Add a pack
+         * @description Adds a pack to the catalog (at most 500). Audited as catalog.item_created.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["CatalogPackInput"];
+                };
+            };
+            responses: {
+                /** @description The pack. */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CatalogPack"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The SKU is already in the catalog, or the catalog is full. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/packs/{itemId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        /**
+         * Replace a pack
+         * @description Replaces every field of the pack (fields left out are cleared). Audited as catalog.item_updated.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        put: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path: {
+                    /** @description The item id. */
+                    itemId: string;
+                };
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["CatalogPackInput"];
+                };
+            };
+            responses: {
+                /** @description The pack. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CatalogPack"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No such item in this organization. */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The SKU belongs to another item. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        post?: never;
+        /**
+         * Delete a pack
+         * @description Deletes the item. Audited as catalog.item_deleted.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        delete: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path: {
+                    /** @description The item id. */
+                    itemId: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Deleted. */
+                204: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content?: never;
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No such item in this organization. */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/packs/export": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Export the packs as CSV
+         * @description Every pack as a CSV file (UTF-8, header row, CRLF) in the columns the import reads: `sku`, `name`, `url`, `chemistry`, `seriesCells`, `capacityAh`, `internalResistanceMOhm`, `maxContinuousDischargeA`, `maxChargeA`, `peakDischargeA`, `cycleLife`, `priceAmount`, `priceCurrency`. Text that a spreadsheet would run as a formula is prefixed with `'`.
+         *
+         *     Roles: owner, admin, developer, viewer (in the active organization).
+         */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The CSV file. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "text/csv": string;
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Your role in the active organization does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/catalog/packs/import": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Import packs from CSV
+         * @description Uploads one CSV file (multipart/form-data, field `file`, a .csv name or a CSV media type, UTF-8, at most 512 KiB and 500 rows). Header: any of `sku`, `name`, `url`, `chemistry`, `seriesCells`, `capacityAh`, `internalResistanceMOhm`, `maxContinuousDischargeA`, `maxChargeA`, `peakDischargeA`, `cycleLife`, `priceAmount`, `priceCurrency` (`sku` and `name` required; blank cells leave a field out). Every row is validated with the same schema as the form; one problem anywhere refuses the whole file with each problem named by row, line and column (`errors[]` and `rowErrors[]`). Otherwise every row is added or, by SKU, updated in one transaction (`mode=replace` also deletes the SKUs the file leaves out). Audited as catalog.imported.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        post: {
+            parameters: {
+                query?: {
+                    /** @description merge: add new SKUs and update listed ones; replace: also delete the SKUs the file does not list. */
+                    mode?: "merge" | "replace";
+                };
+                header: {
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "multipart/form-data": {
+                        /**
+                         * Format: binary
+                         * @description The CSV file.
+                         */
+                        file: string;
+                    };
+                };
+            };
+            responses: {
+                /** @description What the import changed. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CatalogImportResult"];
+                    };
+                };
+                /** @description The upload could not be read (a broken multipart body, extra parts). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request, or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The catalog would hold more than 500 items of the kind. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The file is larger than 512 KiB. */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not multipart/form-data, or the file is not CSV text (another type, binary, not UTF-8). */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No file, or rows that fail validation: `rowErrors[]` names each by row, line and column; nothing was imported. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -7575,6 +8891,381 @@ export interface components {
              */
             keyId: string;
             input: components["schemas"]["CompatibilityInput"];
+        };
+        /** @description The catalog of the key's organization. */
+        CatalogResult: {
+            data: components["schemas"]["Catalog"];
+            checks: components["schemas"]["Check"][];
+            /** @description Safety cautions; always show them next to the result. */
+            cautions: string[];
+            /** @description The tables, standards and models that produced the result. */
+            basis: string[];
+        };
+        /** @description The organization's host units and packs, each list ordered by name. */
+        Catalog: {
+            hosts: components["schemas"]["CatalogHost"][];
+            packs: components["schemas"]["CatalogPack"][];
+        };
+        /** @description A host unit in the catalog. */
+        CatalogHost: {
+            /** Format: uuid */
+            id: string;
+            /** @description ISO 8601 time. */
+            createdAt: string;
+            /** @description ISO 8601 time. */
+            updatedAt: string;
+            /**
+             * @description Stock-keeping unit: the item's code, unique within the organization.
+             * @example LPS-HS1200
+             */
+            sku: string;
+            /** @example Hearthstone 1200 */
+            name: string;
+            /**
+             * Format: uri
+             * @description The product page.
+             * @example https://larkspur-power.example/products/hearthstone-1200
+             */
+            url?: string;
+            dcInput?: components["schemas"]["HostDcInput"];
+            battery?: components["schemas"]["HostBattery"];
+        };
+        /** @description A pack in the catalog. */
+        CatalogPack: {
+            /** Format: uuid */
+            id: string;
+            /** @description ISO 8601 time. */
+            createdAt: string;
+            /** @description ISO 8601 time. */
+            updatedAt: string;
+            /**
+             * @description Stock-keeping unit: the item's code, unique within the organization.
+             * @example LPS-HS1200
+             */
+            sku: string;
+            /** @example Hearthstone 1200 */
+            name: string;
+            /**
+             * Format: uri
+             * @description The product page.
+             * @example https://larkspur-power.example/products/hearthstone-1200
+             */
+            url?: string;
+            chemistry: components["schemas"]["Chemistry"];
+            /**
+             * @description Cells (or cell groups) in series.
+             * @example 16
+             */
+            seriesCells: number;
+            /**
+             * @description Rated capacity, Ah.
+             * @example 100
+             */
+            capacityAh: number;
+            /**
+             * @description Pack internal resistance, mΩ (DC).
+             * @example 8
+             */
+            internalResistanceMOhm?: number;
+            /** @example 100 */
+            maxContinuousDischargeA?: number;
+            /** @example 50 */
+            maxChargeA?: number;
+            /** @example 200 */
+            peakDischargeA?: number;
+            /**
+             * @description Rated cycles to end of life at the planned depth of discharge (from the pack’s datasheet).
+             * @example 4000
+             */
+            cycleLife?: number;
+            /** @description Shelf price. */
+            price?: {
+                /** @example 1299 */
+                amount: number;
+                /** @example USD */
+                currency: string;
+            };
+        };
+        /** @description The compatibility verdicts of every host × pack pair, with each pair's methods and findings. */
+        CompatibilityMatrixResult: {
+            data: components["schemas"]["CompatibilityMatrixData"];
+            checks: components["schemas"]["Check"][];
+            /** @description Safety cautions; always show them next to the result. */
+            cautions: string[];
+            /** @description The tables, standards and models that produced the result. */
+            basis: string[];
+        };
+        CompatibilityMatrixData: {
+            hosts: {
+                label: string;
+                sku: string | null;
+                /**
+                 * @description Whether the item came from the catalog or from the request.
+                 * @enum {string}
+                 */
+                source: "catalog" | "request";
+            }[];
+            packs: {
+                label: string;
+                sku: string | null;
+                /**
+                 * @description Whether the item came from the catalog or from the request.
+                 * @enum {string}
+                 */
+                source: "catalog" | "request";
+                nominalVoltageV: number;
+                fullChargeVoltageV: number;
+                cutoffVoltageV: number;
+                stateOfChargePct: number;
+                storedEnergyWh: number;
+            }[];
+            /** @description Every host × pack pair, host by host in the order of hosts, then pack by pack. */
+            pairs: {
+                /** @description Index into hosts. */
+                hostIndex: number;
+                /** @description Index into packs. */
+                packIndex: number;
+                /**
+                 * @description The best verdict among the methods.
+                 * @enum {string}
+                 */
+                verdict: "compatible" | "limited" | "incompatible";
+                /**
+                 * @description The method that gives it (dc_input first on a tie).
+                 * @enum {string}
+                 */
+                method: "dc_input" | "direct_parallel";
+                methods: components["schemas"]["CompatibilityMethod"][];
+                /** @description The check's findings for this pair. */
+                checks: components["schemas"]["Check"][];
+            }[];
+            /** @description Pairs by verdict. */
+            counts: {
+                compatible: number;
+                limited: number;
+                incompatible: number;
+            };
+        };
+        /**
+         * @description Which hosts and packs to pair: the catalog's (optionally filtered by SKU) or lists sent here. An empty body checks the whole catalog.
+         * @example {
+         *       "hosts": [
+         *         {
+         *           "label": "Unit with a 12–60 V input",
+         *           "dcInput": {
+         *             "minVoltageV": 12,
+         *             "maxVoltageV": 60,
+         *             "maxCurrentA": 13,
+         *             "maxPowerW": 600
+         *           }
+         *         }
+         *       ],
+         *       "packs": [
+         *         {
+         *           "label": "48 V LFP 100 Ah",
+         *           "chemistry": "lfp",
+         *           "seriesCells": 16,
+         *           "capacityAh": 100
+         *         },
+         *         {
+         *           "label": "12 V LFP 200 Ah",
+         *           "chemistry": "lfp",
+         *           "seriesCells": 4,
+         *           "capacityAh": 200
+         *         }
+         *       ]
+         *     }
+         */
+        CompatibilityMatrixInput: {
+            /** @description Hosts to check; left out: the catalog's host units. */
+            hosts?: components["schemas"]["MatrixHost"][];
+            /** @description Packs to check; left out: the catalog's packs. */
+            packs?: components["schemas"]["MatrixPack"][];
+            /** @description Only these catalog host units (when hosts is left out). */
+            hostSkus?: string[];
+            /** @description Only these catalog packs (when packs is left out). */
+            packSkus?: string[];
+            /**
+             * @description State of charge assumed for packs that give neither stateOfChargePct nor restingVoltageV (catalog packs never do), %.
+             * @default 100
+             * @example 100
+             */
+            defaultStateOfChargePct?: number;
+        };
+        /** @description A host unit for the matrix: a label, optionally its SKU, and its DC input and/or battery. */
+        MatrixHost: {
+            /** @example Hearthstone 1200 */
+            label: string;
+            /**
+             * @description Stock-keeping unit: the item's code, unique within the organization.
+             * @example LPS-HS1200
+             */
+            sku?: string;
+            dcInput?: components["schemas"]["HostDcInput"];
+            battery?: components["schemas"]["HostBattery"];
+        };
+        /** @description A pack for the matrix: a PackSpec with a label and optionally its SKU. */
+        MatrixPack: {
+            /** @example Fieldbank 48-100 */
+            label: string;
+            chemistry: components["schemas"]["Chemistry"];
+            /**
+             * @description Cells (or cell groups) in series.
+             * @example 16
+             */
+            seriesCells: number;
+            /**
+             * @description Rated capacity, Ah.
+             * @example 100
+             */
+            capacityAh: number;
+            /**
+             * @description State of charge, %. Used to look up the open-circuit voltage.
+             * @example 50
+             */
+            stateOfChargePct?: number;
+            /**
+             * @description Measured rested pack voltage, V. When given, overrides the voltage looked up from stateOfChargePct.
+             * @example 53.1
+             */
+            restingVoltageV?: number;
+            /**
+             * @description Pack internal resistance, mΩ (DC).
+             * @example 8
+             */
+            internalResistanceMOhm?: number;
+            /** @example 100 */
+            maxContinuousDischargeA?: number;
+            /** @example 50 */
+            maxChargeA?: number;
+            /** @example 200 */
+            peakDischargeA?: number;
+            /** @example 5 */
+            peakDurationS?: number;
+            /**
+             * @description Stock-keeping unit: the item's code, unique within the organization.
+             * @example LPS-HS1200
+             */
+            sku?: string;
+        };
+        /**
+         * @description A host unit (power station or similar) as the organization lists it.
+         * @example {
+         *       "sku": "LPS-HS1200",
+         *       "name": "Hearthstone 1200",
+         *       "url": "https://larkspur-power.example/products/hearthstone-1200",
+         *       "dcInput": {
+         *         "minVoltageV": 12,
+         *         "maxVoltageV": 60,
+         *         "maxCurrentA": 13,
+         *         "maxPowerW": 600
+         *       },
+         *       "battery": {
+         *         "chemistry": "lfp",
+         *         "seriesCells": 16,
+         *         "capacityAh": 23.4
+         *       }
+         *     }
+         */
+        CatalogHostInput: {
+            /**
+             * @description Stock-keeping unit: the item's code, unique within the organization.
+             * @example LPS-HS1200
+             */
+            sku: string;
+            /** @example Hearthstone 1200 */
+            name: string;
+            /**
+             * Format: uri
+             * @description The product page.
+             * @example https://larkspur-power.example/products/hearthstone-1200
+             */
+            url?: string;
+            dcInput?: components["schemas"]["HostDcInput"];
+            battery?: components["schemas"]["HostBattery"];
+        };
+        /** @description What an import changed (all of it in one transaction). */
+        CatalogImportResult: {
+            kind: components["schemas"]["CatalogKind"];
+            /**
+             * @description merge: add new SKUs and update listed ones; replace: also delete the SKUs the file does not list.
+             * @enum {string}
+             */
+            mode: "merge" | "replace";
+            /** @description Data rows in the file. */
+            rows: number;
+            created: number;
+            updated: number;
+            deleted: number;
+        };
+        /** @enum {string} */
+        CatalogKind: "hosts" | "packs";
+        /**
+         * @description A battery pack as the organization lists it.
+         * @example {
+         *       "sku": "LPS-FB48-100",
+         *       "name": "Fieldbank 48-100",
+         *       "chemistry": "lfp",
+         *       "seriesCells": 16,
+         *       "capacityAh": 100,
+         *       "internalResistanceMOhm": 9,
+         *       "maxContinuousDischargeA": 100,
+         *       "maxChargeA": 50,
+         *       "cycleLife": 4000,
+         *       "price": {
+         *         "amount": 1390,
+         *         "currency": "USD"
+         *       }
+         *     }
+         */
+        CatalogPackInput: {
+            /**
+             * @description Stock-keeping unit: the item's code, unique within the organization.
+             * @example LPS-HS1200
+             */
+            sku: string;
+            /** @example Hearthstone 1200 */
+            name: string;
+            /**
+             * Format: uri
+             * @description The product page.
+             * @example https://larkspur-power.example/products/hearthstone-1200
+             */
+            url?: string;
+            chemistry: components["schemas"]["Chemistry"];
+            /**
+             * @description Cells (or cell groups) in series.
+             * @example 16
+             */
+            seriesCells: number;
+            /**
+             * @description Rated capacity, Ah.
+             * @example 100
+             */
+            capacityAh: number;
+            /**
+             * @description Pack internal resistance, mΩ (DC).
+             * @example 8
+             */
+            internalResistanceMOhm?: number;
+            /** @example 100 */
+            maxContinuousDischargeA?: number;
+            /** @example 50 */
+            maxChargeA?: number;
+            /** @example 200 */
+            peakDischargeA?: number;
+            /**
+             * @description Rated cycles to end of life at the planned depth of discharge (from the pack’s datasheet).
+             * @example 4000
+             */
+            cycleLife?: number;
+            /** @description Shelf price. */
+            price?: {
+                /** @example 1299 */
+                amount: number;
+                /** @example USD */
+                currency: string;
+            };
         };
     };
     responses: never;

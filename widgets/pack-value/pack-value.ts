@@ -1,0 +1,5 @@
+/** Defines `<ohmstead-pack-value>` (once, however often the bundle is loaded). */
+import { defineElement } from '../internal/base-element.ts';
+import { OhmsteadPackValueElement } from './pack-value.element.ts';
+
+defineElement('ohmstead-pack-value', OhmsteadPackValueElement);
