@@ -25,6 +25,9 @@ const built: Record<string, ReturnType<typeof lazyPage>> = {
   '/keys': lazyPage(async () => ({ Component: (await import('../features/keys/components/keys-page.tsx')).KeysPage })),
   '/usage': lazyPage(async () => ({ Component: (await import('../features/usage/components/usage-page.tsx')).UsagePage })),
   '/billing': lazyPage(async () => ({ Component: (await import('../features/billing/components/billing-page.tsx')).BillingPage })),
+  '/': lazyPage(async () => ({ Component: (await import('../features/overview/components/overview-page.tsx')).OverviewPage })),
+  '/playground': Object.assign(lazyPage(async () => ({ Component: (await import('../features/playground/components/playground-page.tsx')).PlaygroundPage })), { path: 'playground/*' }),
+  '/reference': lazyPage(async () => ({ Component: (await import('../features/reference/components/reference-page.tsx')).ReferencePage })),
 };
 
 const router = createBrowserRouter([
