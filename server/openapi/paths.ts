@@ -21,3 +21,4 @@ import '../modules/chemistries/chemistries.openapi.ts';
 import '../modules/billing/billing.openapi.ts';
 import '../modules/playground/playground.openapi.ts';
 import '../modules/catalog/catalog.openapi.ts';
+import '../modules/widgets/widgets.openapi.ts';

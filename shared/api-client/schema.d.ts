@@ -6873,6 +6873,189 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/widgets/access": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * May this embed key be used from this page?
+         * @description For widgets on a page whose origin the API refused (a refused CORS preflight shows a page only a network error): the body is the embed key as text/plain, so the request is CORS-simple; the answer names the reason. Answered to any origin; no key header, not metered. The widget bundle itself is served at `/widgets/<version>/ohmstead-widgets.js` (immutable) and `/widgets/<major>/ohmstead-widgets.js` (moving), with `ohmstead-widgets.classic.js` as a classic script.
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "text/plain": string;
+                };
+            };
+            responses: {
+                /** @description Whether the key may be used from the request's Origin, and why not. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["WidgetAccess"];
+                    };
+                };
+                /** @description The body is larger than accepted. */
+                413: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/keys/{keyId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        /**
+         * Rename a key or change its allowed origins
+         * @description Sets a key's name and/or, for an embed key, its whole list of allowed origins (normalized to scheme://host[:port]; at least one, at most the plan's number). Developers may change only the keys they created. Takes effect at once on this server and within the key cache time elsewhere. Audited as api_key.updated with what changed.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        patch: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path: {
+                    keyId: string;
+                };
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["UpdateApiKeyInput"];
+                };
+            };
+            responses: {
+                /** @description The key as it is now. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["UpdatedApiKey"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No such key in this organization. */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The key is revoked or expired. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -9266,6 +9449,48 @@ export interface components {
                 /** @example USD */
                 currency: string;
             };
+        };
+        WidgetAccess: {
+            allowed: boolean;
+            /** @enum {string} */
+            reason: "allowed" | "not_an_embed_key" | "unknown_key" | "key_inactive" | "origin_not_listed";
+            origin: string | null;
+            detail: string;
+        };
+        UpdatedApiKey: {
+            key: components["schemas"]["ApiKey"];
+        };
+        /** @description An API key as the console shows it: never the secret. */
+        ApiKey: {
+            id: string;
+            name: string;
+            kind: components["schemas"]["ApiKeyKind"];
+            /** @example ohs_srv_Ab3x */
+            displayPrefix: string;
+            last4: string;
+            allowedOrigins: string[];
+            createdByUserId: string | null;
+            createdAt: string;
+            lastUsedAt: string | null;
+            expiresAt: string | null;
+            revokedAt: string | null;
+            replacedByKeyId: string | null;
+            /** @enum {string} */
+            status: "active" | "expiring" | "expired" | "revoked";
+        };
+        /** @enum {string} */
+        ApiKeyKind: "server" | "embed";
+        /** @description A key's new name and/or (embed keys) its whole list of allowed origins. */
+        UpdateApiKeyInput: {
+            /** @example Product pages */
+            name?: string;
+            /**
+             * @description Embed keys only: the whole new list of sites (scheme://host[:port]) the key may be used from.
+             * @example [
+             *       "https://shop.example"
+             *     ]
+             */
+            allowedOrigins?: string[];
         };
     };
     responses: never;

@@ -166,19 +166,18 @@ export function parseCatalogCsv(kind: CatalogKind, text: string): ParsedCatalogC
       return;
     }
     const { item, notNumbers } = rowToObject(kind, header, record.cells);
-    if (notNumbers.length) {
-      for (const n of notNumbers) problems.push({ row, line: record.line, column: n.column, detail: `"${n.raw}" is not a number (write digits, with . for decimals and no units).` });
-      return;
-    }
+    // Repeated SKUs are found on the cells themselves, so a row that fails otherwise still claims its SKU.
+    const sku = typeof item.sku === 'string' ? item.sku : undefined;
+    const earlier = sku === undefined ? undefined : firstRowOfSku.get(sku);
+    if (sku !== undefined && earlier !== undefined) problems.push({ row, line: record.line, column: 'sku', detail: `SKU "${sku}" is already on row ${earlier}.` });
+    else if (sku !== undefined) firstRowOfSku.set(sku, row);
+    for (const n of notNumbers) problems.push({ row, line: record.line, column: n.column, detail: `"${n.raw}" is not a number (write digits, with . for decimals and no units).` });
+    if (notNumbers.length) return;
     const result = schema.safeParse(item);
     if (!result.success) {
       for (const issue of result.error.issues) problems.push({ row, line: record.line, column: columnFor(kind, issue.path), detail: issue.message });
       return;
     }
-    const sku = (result.data as { sku: string }).sku;
-    const earlier = firstRowOfSku.get(sku);
-    if (earlier !== undefined) problems.push({ row, line: record.line, column: 'sku', detail: `SKU "${sku}" is already on row ${earlier}.` });
-    else firstRowOfSku.set(sku, row);
     items.push(result.data);
   });
   if (problems.length) refuse(kind, records.length, problems);

@@ -1,5 +1,5 @@
 /** SQL for the catalog: host units and packs of one organization, always scoped by organization id. */
-import { and, asc, eq, getTableColumns, notInArray, sql, type SQL } from 'drizzle-orm';
+import { and, asc, eq, getTableColumns, inArray, notInArray, sql, type SQL } from 'drizzle-orm';
 import { toSnakeCase } from 'drizzle-orm/casing';
 import type { PgColumn } from 'drizzle-orm/pg-core';
 import { catalogHosts, catalogPacks, organizations } from '../../db/schema/index.ts';
@@ -14,12 +14,12 @@ const tables = { hosts: catalogHosts, packs: catalogPacks } as const;
 export type CatalogTableKind = keyof typeof tables;
 
 export async function listHosts(db: Executor, organizationId: string, skus?: string[]): Promise<CatalogHostRow[]> {
-  const where = skus ? and(eq(catalogHosts.organizationId, organizationId), sql`${catalogHosts.sku} = any(${skus})`) : eq(catalogHosts.organizationId, organizationId);
+  const where = skus ? and(eq(catalogHosts.organizationId, organizationId), inArray(catalogHosts.sku, skus)) : eq(catalogHosts.organizationId, organizationId);
   return db.select().from(catalogHosts).where(where).orderBy(asc(catalogHosts.name), asc(catalogHosts.sku));
 }
 
 export async function listPacks(db: Executor, organizationId: string, skus?: string[]): Promise<CatalogPackRow[]> {
-  const where = skus ? and(eq(catalogPacks.organizationId, organizationId), sql`${catalogPacks.sku} = any(${skus})`) : eq(catalogPacks.organizationId, organizationId);
+  const where = skus ? and(eq(catalogPacks.organizationId, organizationId), inArray(catalogPacks.sku, skus)) : eq(catalogPacks.organizationId, organizationId);
   return db.select().from(catalogPacks).where(where).orderBy(asc(catalogPacks.name), asc(catalogPacks.sku));
 }
 

@@ -17,6 +17,8 @@ import { billingAccounts } from '../../db/schema/index.ts';
 import { giveBillingAccount, startBillingFake, type BillingFake } from '../billing/billing.test-kit.ts';
 import { playgroundCalculations } from '../playground/playground.calcs.ts';
 import { createTestKey } from '../../../tests/setup/fixtures.ts';
+import { apiKeys, catalogHosts, catalogPacks } from '../../db/schema/index.ts';
+import { seedDemoCatalog } from '../catalog/catalog.seed.ts';
 
 // Billing routes talk to the payment provider: the Stripe-shaped fake starts first and the app is pointed at it.
 let billingFake: BillingFake;
@@ -69,6 +71,8 @@ interface Row {
   override?: Partial<Record<Actor, number>>;
   /** Extra checks after the call, e.g. that A was not touched by the outsider. */
   check?: (w: World, res: request.Response) => Promise<void> | void;
+  /** A multipart upload (field `file`) instead of a JSON body. */
+  attach?: { content: string; filename: string };
 }
 
 async function freshEmailToken(purpose: 'verify_email' | 'reset_password') {
@@ -263,7 +267,91 @@ const rows: Row[] = [
       override: { outsider: 404 },
     }),
   ),
+  // The catalog: every role reads, owners, admins and developers change it; the outsider acts on B's catalog
+  // (an item of A addressed from B is 404) and A's catalog is never touched by B.
+  ...catalogRows(),
+  // A key's name and allowed origins (the Widgets page): developers only for the keys they created.
+  {
+    method: 'patch',
+    path: '/console-api/keys/{keyId}',
+    send: async (w) => {
+      const { key } = await createTestKey(kit.db, kit.app.platform!.hashSecret, w.a.org.id, { kind: 'embed', allowedOrigins: ['https://a.example'] });
+      return { url: `/console-api/keys/${key.id}`, body: { allowedOrigins: ['https://shop.a.example'] } };
+    },
+    override: { developer: 403, outsider: 404 },
+    check: async (w) => {
+      const [key] = await kit.db.select().from(apiKeys).where(eq(apiKeys.organizationId, w.a.org.id));
+      expect(key!.allowedOrigins).toEqual([['owner', 'admin'].includes(w.actor) ? 'https://shop.a.example' : 'https://a.example']);
+    },
+  },
 ];
+
+/** Both organizations get the demo catalog; returns A's first host and pack. */
+async function withCatalogs(w: World) {
+  for (const id of [w.a.org.id, w.b.org.id]) await kit.db.transaction((tx) => seedDemoCatalog(tx, id));
+  const [host] = await kit.db.select().from(catalogHosts).where(eq(catalogHosts.organizationId, w.a.org.id));
+  const [pack] = await kit.db.select().from(catalogPacks).where(eq(catalogPacks.organizationId, w.a.org.id));
+  return { host: host!, pack: pack! };
+}
+const editors = (w: World) => ['owner', 'admin', 'developer'].includes(w.actor);
+async function countIn(table: typeof catalogHosts | typeof catalogPacks, organizationId: string) {
+  return (await kit.db.select().from(table).where(eq(table.organizationId, organizationId))).length;
+}
+
+function catalogRows(): Row[] {
+  const host = { sku: 'MX-H', name: 'Matrix unit', dcInput: { minVoltageV: 12, maxVoltageV: 60, maxCurrentA: 15 } };
+  const pack = { sku: 'MX-P', name: 'Matrix pack', chemistry: 'lfp', seriesCells: 16, capacityAh: 50 };
+  const rows: Row[] = [
+    { method: 'get', path: '/console-api/catalog', send: async (w) => (await withCatalogs(w), { url: '/console-api/catalog' }), check: (_w, res) => void (res.status === 200 && expect(res.body.hosts).toHaveLength(3)) },
+    { method: 'get', path: '/console-api/catalog/matrix', send: async (w) => (await withCatalogs(w), { url: '/console-api/catalog/matrix' }), check: (_w, res) => void (res.status === 200 && expect(res.body.data.pairs).toHaveLength(12)) },
+  ];
+  for (const kind of ['hosts', 'packs'] as const) {
+    const table = kind === 'hosts' ? catalogHosts : catalogPacks;
+    const item = kind === 'hosts' ? host : pack;
+    rows.push(
+      {
+        method: 'post',
+        path: `/console-api/catalog/${kind}`,
+        send: () => ({ url: `/console-api/catalog/${kind}`, body: item }),
+        check: async (w) => expect(await countIn(table, w.a.org.id)).toBe(editors(w) ? 1 : 0),
+      },
+      {
+        method: 'put',
+        path: `/console-api/catalog/${kind}/{itemId}`,
+        send: async (w) => ({ url: `/console-api/catalog/${kind}/${(await withCatalogs(w))[kind === 'hosts' ? 'host' : 'pack'].id}`, body: item }),
+        override: { outsider: 404 },
+        check: async (w) => {
+          const skus = (await kit.db.select().from(table).where(eq(table.organizationId, w.a.org.id))).map((r) => r.sku);
+          expect(skus.includes(item.sku)).toBe(editors(w));
+        },
+      },
+      {
+        method: 'delete',
+        path: `/console-api/catalog/${kind}/{itemId}`,
+        send: async (w) => ({ url: `/console-api/catalog/${kind}/${(await withCatalogs(w))[kind === 'hosts' ? 'host' : 'pack'].id}` }),
+        override: { outsider: 404 },
+        check: async (w) => expect(await countIn(table, w.a.org.id)).toBe((kind === 'hosts' ? 3 : 4) - (editors(w) ? 1 : 0)),
+      },
+      {
+        method: 'get',
+        path: `/console-api/catalog/${kind}/export`,
+        send: async (w) => (await withCatalogs(w), { url: `/console-api/catalog/${kind}/export` }),
+        check: (_w, res) => void (res.status === 200 && expect(res.text.split('\r\n').filter(Boolean)).toHaveLength(kind === 'hosts' ? 4 : 5)),
+      },
+      {
+        method: 'post',
+        path: `/console-api/catalog/${kind}/import`,
+        send: () => ({ url: `/console-api/catalog/${kind}/import` }),
+        attach: {
+          filename: `${kind}.csv`,
+          content: kind === 'hosts' ? 'sku,name,dcInputMinVoltageV,dcInputMaxVoltageV,dcInputMaxCurrentA\nMX-H,Matrix unit,12,60,15\n' : 'sku,name,chemistry,seriesCells,capacityAh\nMX-P,Matrix pack,lfp,16,50\n',
+        },
+        check: async (w) => expect(await countIn(table, w.a.org.id)).toBe(editors(w) ? 1 : 0),
+      },
+    );
+  }
+  return rows;
+}
 
 const document = buildOpenApiDocument();
 const successStatus = (row: Row) => {
@@ -297,6 +385,7 @@ describe.each(rows)('$method $path', (row) => {
     const { url, body } = await row.send(w);
     let req = request(kit.app)[row.method](url).set(CSRF_HEADER, '1');
     if (w.cookie) req = req.set('Cookie', w.cookie);
+    if (row.attach) req = req.attach('file', Buffer.from(row.attach.content), { filename: row.attach.filename, contentType: 'text/csv' });
     const res = body === undefined ? await req : await req.send(body as object);
     const want = expected(row, actor);
     expect(res.status, `${row.method.toUpperCase()} ${url} as ${actor}: ${JSON.stringify(res.body)}`).toBe(want);

@@ -13,6 +13,8 @@ import { organizationAuth, requireRole } from '../auth/session.ts';
 import type { KeyResolver } from './key-resolver.ts';
 import { findKey, listKeys, type ApiKeyRow } from './keys.queries.ts';
 import { createKey, revokeKey, rotateKey } from './keys.service.ts';
+import { UpdateApiKeyInputSchema } from '#shared/schemas/widgets.ts';
+import { updateKeyDetails } from '../widgets/widget-key.service.ts';
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
@@ -114,6 +116,18 @@ export function keysConsoleRouter(deps: { db: Db; hashSecret: string; resolver: 
     );
     resolver.invalidate();
     res.status(201).json({ key: toKeyView(result.key), secret: result.secret, previous: toKeyView(result.previous) });
+  });
+
+  // Rename a key, or set an embed key's allowed origins (the Widgets page edits them beside its preview).
+  router.patch('/keys/:keyId', requireRole('owner', 'admin', 'developer'), async (req, res) => {
+    const keyId = keyIdParam(req.params.keyId);
+    const input = parseJsonBody(UpdateApiKeyInputSchema, req);
+    await assertMayManage(db, res, keyId);
+    const row = await updateKeyDetails(db, { organizationId: organizationAuth(res).organizationId, keyId, change: input }, new Date(), (tx, { key, change }) =>
+      audit(tx, { ...auditContext(req, res), action: 'api_key.updated', targetType: 'api_key', targetId: key.id, details: { ...change } }),
+    );
+    resolver.invalidate();
+    res.json({ key: toKeyView(row) });
   });
 
   return router;
