@@ -26,14 +26,17 @@ export function CopyButton({ text, label = 'Copy', className = '' }: { text: str
   );
 }
 
-/** Preformatted code with a copy button. */
+/** Preformatted code with a copy button above it. */
 export function CodeBlock({ code, label }: { code: string; label: string }) {
   return (
-    <div className="relative">
-      <pre aria-label={label} tabIndex={0} className="overflow-x-auto rounded-lg bg-graphite p-4 pr-24 font-mono text-[13px] leading-relaxed text-[#f3eee6]">
+    <div className="overflow-hidden rounded-lg bg-graphite">
+      <div className="flex items-center justify-between gap-2 border-b border-white/10 px-4 py-1.5">
+        <span className="text-xs text-[#d8d1c6]">{label}</span>
+        <CopyButton text={code} label="Copy" />
+      </div>
+      <pre aria-label={label} tabIndex={0} className="overflow-x-auto p-4 font-mono text-[13px] leading-relaxed text-[#f3eee6]">
         <code>{code}</code>
       </pre>
-      <CopyButton text={code} label="Copy" className="absolute right-2 top-2" />
     </div>
   );
 }

@@ -3,7 +3,17 @@ import type { ReactNode } from 'react';
 import { formatNumber } from '../../../lib/format.ts';
 
 // Each ≥ 3:1 against white (WCAG 2.2 1.4.11 for graphics); lines are also told apart by dash and legend.
-export const colors = { copper: '#a85a23', graphite: '#2b2a28', green: '#2f6b3f', blue: '#2f5d8a', danger: '#a3261b', warn: '#8a5a00', grid: '#ddd5c8' } as const;
+export const colors = {
+  copper: '#a85a23',
+  graphite: '#2b2a28',
+  green: '#2f6b3f',
+  blue: '#2f5d8a',
+  danger: '#a3261b',
+  warn: '#8a5a00',
+  passing: '#4f7d5c',
+  failing: '#8c857b',
+  grid: '#ddd5c8',
+} as const;
 
 export const axisStyle = { fontSize: 12, fill: '#57534d', fontFamily: 'JetBrains Mono, ui-monospace, monospace' };
 

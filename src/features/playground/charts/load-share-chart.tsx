@@ -48,7 +48,7 @@ export default function LoadShareChart({ packs, timeline }: { packs: PackShare[]
             <Tooltip formatter={(v) => formatNumber(Number(v))} />
             <Legend verticalAlign="top" height={28} />
             <Bar dataKey="currentA" name="Current (A)" fill={colors.copper} isAnimationActive={false} />
-            {hasLimits ? <Bar dataKey="limitA" name="Continuous limit (A)" fill="#d9c2ad" stroke={colors.warn} isAnimationActive={false} /> : null}
+            {hasLimits ? <Bar dataKey="limitA" name="Continuous limit (A)" fill={colors.failing} isAnimationActive={false} /> : null}
           </BarChart>
         </ResponsiveContainer>
       </ChartFrame>

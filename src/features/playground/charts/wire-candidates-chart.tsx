@@ -27,13 +27,14 @@ export default function WireCandidatesChart({
     { label: 'Derated ampacity (A)', value: (c: Candidate) => c.deratedAmpacityA },
     { label: 'Passes', value: (c: Candidate) => (c.passes ? 'yes' : 'no') },
   ];
-  const fill = (c: Candidate) => (c.size === recommended ? colors.copper : c.passes ? '#c9a488' : '#b9b3aa');
+  // Recommended: copper; other passing sizes: green; failing sizes: grey (each ≥ 3:1 against the white plot).
+  const fill = (c: Candidate) => (c.size === recommended ? colors.copper : c.passes ? colors.passing : colors.failing);
   const sizeAxis = <XAxis dataKey="size" tick={{ ...axisStyle, fontSize: 11 }} interval={0} angle={-40} textAnchor="end" height={56} />;
   return (
     <div className="grid gap-4 xl:grid-cols-2">
       <ChartFrame
         title="Voltage drop by size"
-        description={`Round-trip drop in % of the system voltage; the dashed line is the ${formatNumber(maxVoltageDropPct)} % limit. The recommended size is in copper.`}
+        description={`Round-trip drop in % of the system voltage; the dashed line is the ${formatNumber(maxVoltageDropPct)} % limit. The recommended size is in copper, other passing sizes in green, failing ones in grey.`}
         rows={candidates}
         columns={columns}
       >

@@ -51,7 +51,7 @@ export function PlaygroundPage() {
               <NavLink
                 to={`/playground/${c.slug}`}
                 className={({ isActive }) =>
-                  `block rounded-md px-3 py-1.5 text-sm ${isActive ? 'bg-copper-wash font-medium text-copper' : 'text-graphite-soft hover:bg-paper-deep hover:text-graphite'}`
+                  `block rounded-md px-3 py-1.5 text-sm ${isActive ? 'bg-copper-wash font-medium text-[#8f4b1c]' : 'text-graphite-soft hover:bg-paper-deep hover:text-graphite'}`
                 }
               >
                 {c.title}
