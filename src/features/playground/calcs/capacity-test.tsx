@@ -50,13 +50,14 @@ const FormSchema = z.discriminatedUnion('mode', [
 
 /**
  * An invented log for the demo: a 16-cell LFP pack of 100 Ah (the "Fieldbank 48-100") discharged at 20 A
- * (0.2C) from full for 4.8 h, a sample every 5 minutes; voltage from the LFP open-circuit curve less
+ * (0.2C) from full for 4.8 h, a sample every 4 minutes; voltage from the LFP open-circuit curve less
  * 20 A × 8 mΩ. It delivers 96 Ah.
  */
 export function sampleCapacityLog(): string {
   const pack = { chemistry: 'lfp' as const, seriesCells: 16 };
   const rows = ['tS,currentA,voltageV'];
-  for (let tS = 0; tS <= 4.8 * 3600; tS += 300) {
+  const endS = Math.round(4.8 * 3600);
+  for (let tS = 0; tS <= endS; tS += 240) {
     const soc = 100 - ((20 * tS) / 3600 / 100) * 100;
     rows.push(`${tS},20,${(packOcvAtSoc(pack, Math.max(0, soc)) - 20 * 0.008).toFixed(3)}`);
   }
