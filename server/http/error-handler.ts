@@ -81,6 +81,11 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) 
     send(res, problemTypes[slug].status, problemBody(slug, detail, refs));
     return;
   }
+  // The router refuses a path parameter that is not valid percent-encoded UTF-8 (a URIError marked 400).
+  if (err instanceof URIError && (err as BodyParserError).status === 400) {
+    send(res, 400, problemBody('malformed-request', 'A path segment of the URL is not valid percent-encoded UTF-8.', refs));
+    return;
+  }
   req.log?.error({ err }, 'unhandled error');
   send(res, 500, problemBody('internal-error', 'Something went wrong on our side. Quote the request id when you report it.', refs));
 };

@@ -1,3 +1,4 @@
+import { createHash } from 'node:crypto';
 import type { Request, Response } from 'express';
 import type { AccountSession, ChangePasswordInput } from '#shared/schemas/accounts.ts';
 import { AppError } from '../../http/problem.ts';
@@ -46,10 +47,18 @@ export async function changePassword(deps: AccountsDeps, req: Request, res: Resp
   await mailer.send(passwordChangedMail(user.email, `${publicOrigin(env)}/forgot-password`));
 }
 
+/**
+ * The id a session is shown under: derived one-way from the stored token hash, never the hash itself
+ * (the hash is the lookup key of the cookie's token; it stays on the server, OWASP API3:2023).
+ */
+export function publicSessionId(tokenHash: string): string {
+  return createHash('sha256').update(`session-id:${tokenHash}`).digest('base64url').slice(0, 22);
+}
+
 export async function listSessions(deps: AccountsDeps, auth: ConsoleAuth): Promise<AccountSession[]> {
   const rows = await listLiveSessions(deps.db, auth.user.id, deps.env.SESSION_IDLE_MINUTES);
   return rows.map((r) => ({
-    id: r.id,
+    id: publicSessionId(r.id),
     current: r.id === auth.sessionId,
     createdAt: r.createdAt.toISOString(),
     lastSeenAt: r.lastSeenAt.toISOString(),
