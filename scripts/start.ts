@@ -15,6 +15,7 @@ import { keyHashSecret } from '../server/modules/metering/platform.ts';
 import { EnvError, parseEnv } from '../server/env.ts';
 import { startSmtpCatcher } from '../server/fakes/smtp-catcher.ts';
 import { startDevelopmentStripeFake } from '../server/fakes/stripe-fake.ts';
+import { startDemoSampleSite } from '../server/fakes/sample-site.ts';
 import { startServer } from '../server/index.ts';
 
 const indent = (line: string) => console.log(`      ${line}`);
@@ -95,6 +96,9 @@ try {
   const running = await startServer(env);
   cleanups.push(() => running.close());
   stripeFake?.setWebhookUrl(`${running.url}/v1/webhooks/stripe`);
+  // Development: a sample "third-party" page on another port (SAMPLE_SITE_PORT, default PORT + 1) embedding the widgets.
+  const sampleSite = env.NODE_ENV !== 'production' ? await startDemoSampleSite({ env, apiUrl: running.url, port: Number(process.env.SAMPLE_SITE_PORT ?? Number(new URL(running.url).port) + 1), keyFile: join(repoRoot, '.data', 'demo-embed-key'), log: indent }) : null;
+  if (sampleSite) cleanups.push(() => sampleSite.close());
   console.log(`\n  Ohmstead is running at \x1b[1m${running.url}\x1b[0m`);
   console.log(`  API document: ${running.url}/openapi.json   Health: ${running.url}/healthz`);
   console.log(`  Demo organization: ${demo.organization.name} (invented)`);
@@ -102,6 +106,7 @@ try {
   console.log(`    also ${demo.team.map((m) => `${m.email} (${m.role})`).join(', ')}, same passphrase`);
   console.log(`  Demo server key: \x1b[1m${demoKey}\x1b[0m${env.OHMSTEAD_DEMO_HIGH_LIMITS ? ' (high limits for benchmarks)' : ''}`);
   if (mailbox) console.log(`  Development mailbox (mail the server sent): ${running.url}${mailbox}`);
+  if (sampleSite) console.log(`  Sample third-party page with the widgets (another origin): \x1b[1m${sampleSite.url}\x1b[0m`);
   console.log('  Press Ctrl-C to stop.\n');
 } catch (error) {
   console.error(error);

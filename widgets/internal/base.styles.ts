@@ -11,7 +11,7 @@ export const baseCss = `
 :host{${paletteCss(palettes.light)}display:block;container-type:inline-size;color:var(--_fg);font-family:var(--ohmstead-font,system-ui,-apple-system,"Segoe UI",Roboto,sans-serif);font-size:var(--ohmstead-font-size,1rem);line-height:1.45;max-width:var(--ohmstead-max-width,44rem)}
 :host([theme=dark]){${paletteCss(palettes.dark)}}
 @media (prefers-color-scheme:dark){:host([theme=auto]){${paletteCss(palettes.dark)}}}
-:host([hidden]){display:none}
+:host([hidden]),[hidden]{display:none!important}
 *{box-sizing:border-box}
 .card{background:var(--_bg);border:1px solid var(--_border);border-radius:var(--ohmstead-radius,.75rem);padding:clamp(.75rem,4cqi,1.25rem)}
 h2{font-size:1.15em;margin:0 0 .25rem}
