@@ -4,7 +4,7 @@
  * authentication, and for calculations (POST) idempotency and metering. Calculation handlers answer through
  * `res.locals.sendMetered`. Reference data and usage (GET) need a key but are not metered.
  */
-import express, { Router, type RequestHandler } from 'express';
+import express, { Router, type Request, type RequestHandler } from 'express';
 import type { Db } from '../db/client.ts';
 import { AppError } from '../http/problem.ts';
 import { requireApiKey, v1Cors } from './metering/api-auth.ts';
@@ -48,6 +48,17 @@ function knownRoutesOnly(documentedPaths: Record<string, object>): RequestHandle
  */
 const EMBED_READABLE_PATHS = new Set(['/catalog']);
 
+/**
+ * Browsers send no Origin on a same-origin GET (the console's widget preview reading the catalog); there
+ * the browser-set `Sec-Fetch-Site: same-origin` stands for this server's own origin, which the key must
+ * list like any other. A read-only view over `req` (it is not changed).
+ */
+function withOwnOrigin(req: Request): Request {
+  if (req.get('origin') || req.get('sec-fetch-site') !== 'same-origin') return req;
+  const own = `${req.protocol}://${req.get('host') ?? ''}`;
+  return Object.create(req, { get: { value: (name: string) => (name.toLowerCase() === 'origin' ? own : req.get(name)) } }) as Request;
+}
+
 export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Record<string, object> }) {
   const { db, platform } = deps;
   const router = Router();
@@ -56,7 +67,10 @@ export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Re
   router.use(knownRoutesOnly(deps.documentedPaths));
   const calculationKey = requireApiKey(platform.resolver, { calculation: true });
   const referenceKey = requireApiKey(platform.resolver, { calculation: false });
-  router.use((req, res, next) => (req.method === 'POST' || (req.method === 'GET' && EMBED_READABLE_PATHS.has(req.path)) ? calculationKey : referenceKey)(req, res, next));
+  router.use((req, res, next) => {
+    if (req.method === 'GET' && EMBED_READABLE_PATHS.has(req.path)) return calculationKey(withOwnOrigin(req), res, next);
+    return (req.method === 'POST' ? calculationKey : referenceKey)(req, res, next);
+  });
   // CSV bodies (capacity-test logs) are read here, before idempotency hashes the payload.
   const csvText = express.text({ type: 'text/csv', limit: CSV_LIMIT_BYTES });
   const readCsv: RequestHandler = (req, res, next) => (req.headers['content-type']?.startsWith('text/csv') ? csvText(req, res, next) : next());

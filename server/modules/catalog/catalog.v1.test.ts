@@ -19,7 +19,7 @@ let server: string;
 let embed: string;
 
 beforeAll(async () => {
-  org = await createOrganization(db, { customMonthlyQuotaCalls: 100_000, customRatePerMinuteCalls: 100_000 });
+  org = await createOrganization(db, { planId: 'builder', customMonthlyQuotaCalls: 100_000, customRatePerMinuteCalls: 100_000 });
   await db.transaction((tx) => seedDemoCatalog(tx, org.id));
   server = (await createTestKey(db, app.platform!.hashSecret, org.id)).secret;
   embed = (await createTestKey(db, app.platform!.hashSecret, org.id, { kind: 'embed', allowedOrigins: [SHOP] })).secret;
@@ -68,6 +68,15 @@ describe('GET /v1/catalog', () => {
     expect(other.body.detail).toMatch(/not allowed from https:\/\/elsewhere\.example/);
     expect(other.headers['access-control-allow-origin']).toBeUndefined();
     expect((await get('/v1/catalog', embed)).status).toBe(403);
+  });
+
+  it('when a same-origin page reads it (browsers send no Origin on a same-origin GET), then Sec-Fetch-Site stands for the server\'s own origin', async () => {
+    const own = (await createTestKey(db, app.platform!.hashSecret, org.id, { kind: 'embed', allowedOrigins: ['http://console.larkspur.example'] })).secret;
+    const sameOrigin = (key: string) => request(app).get('/v1/catalog').set('Authorization', `Bearer ${key}`).set('Host', 'console.larkspur.example').set('Sec-Fetch-Site', 'same-origin');
+    expect((await sameOrigin(own)).status).toBe(200);
+    // The key must still list that origin; and without Sec-Fetch-Site there is no origin at all.
+    expect((await sameOrigin(embed)).status).toBe(403);
+    expect((await request(app).get('/v1/catalog').set('Authorization', `Bearer ${own}`).set('Host', 'console.larkspur.example')).status).toBe(403);
   });
 
   it('when an embed key reads any other GET (usage), then it is still refused: only the listed paths are open to it', async () => {
