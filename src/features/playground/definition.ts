@@ -33,6 +33,8 @@ export interface CalcDefinition<R extends Envelope = Envelope> {
   /** The demo scenario's values (Larkspur Power Supply, invented). */
   defaults: Record<string, unknown>;
   Form: ComponentType;
+  /** The form has lengths or temperatures: show the metric/imperial switch. */
+  units?: boolean;
   /** The request for the form's values; default: `{ input: values.input }`. */
   toRequest?: (values: Record<string, unknown>) => RunRequest;
   /** Calls the playground route through the typed client. */

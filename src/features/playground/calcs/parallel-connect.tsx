@@ -103,6 +103,7 @@ export const parallelConnect = defineCalc({
   title: 'Connecting two packs',
   summary: 'The inrush when two packs at different voltages are joined, and a pre-charge resistor.',
   formSchema: z.object({ input: ParallelConnectInputSchema }),
+  units: true,
   defaults: { input: { packA: pack('Fieldbank A', 53.6), packB: pack('Fieldbank B', 52.0), link: { resistanceMOhm: 4 }, prechargeTargetA: 10 } },
   Form: ConnectForm,
   run: (keyId, body) => runPlayground(PATH, { keyId, ...body } as PlaygroundBody<typeof PATH>),

@@ -76,6 +76,7 @@ export const wireSize = defineCalc({
   title: 'Size a DC conductor',
   summary: 'The smallest copper wire for the current, the voltage drop and the fuse.',
   formSchema: z.object({ input: WireSizeInputSchema }),
+  units: true,
   defaults: {
     input: {
       label: 'Fieldbank 12-280 to inverter',

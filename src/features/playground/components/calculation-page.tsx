@@ -159,15 +159,17 @@ export function CalculationPage({ definition }: { definition: CalcDefinition }) 
       />
       <div className="mb-6 flex flex-wrap items-end gap-6">
         <KeyPicker state={keyState} keyError={keyError} />
-        <Segmented<UnitSystem>
-          label="Units"
-          value={units}
-          onChange={setUnitSystem}
-          options={[
-            { value: 'imperial', label: 'Imperial (ft, °F)' },
-            { value: 'metric', label: 'Metric (m, °C)' },
-          ]}
-        />
+        {definition.units ? (
+          <Segmented<UnitSystem>
+            label="Units"
+            value={units}
+            onChange={setUnitSystem}
+            options={[
+              { value: 'imperial', label: 'Imperial (ft, °F)' },
+              { value: 'metric', label: 'Metric (m, °C)' },
+            ]}
+          />
+        ) : null}
       </div>
       <div className="grid gap-8 2xl:grid-cols-[minmax(0,34rem)_minmax(0,1fr)]">
         <FormProvider {...form}>

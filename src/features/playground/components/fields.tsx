@@ -60,10 +60,9 @@ export function NumberField({
   unit,
   hint,
   className,
-  step = 'any',
   toDisplay,
   fromDisplay,
-}: BaseProps & { unit?: string; step?: string; toDisplay?: (v: number) => number; fromDisplay?: (v: number) => number }) {
+}: BaseProps & { unit?: string; toDisplay?: (v: number) => number; fromDisplay?: (v: number) => number }) {
   const id = useId();
   const { field, fieldState } = useController({ name });
   const error = friendlyMessage(fieldState.error?.message);
@@ -88,7 +87,6 @@ export function NumberField({
         inputMode="decimal"
         autoComplete="off"
         spellCheck={false}
-        step={step}
         value={text}
         onBlur={field.onBlur}
         onChange={(e) => {
