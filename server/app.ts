@@ -28,6 +28,7 @@ import { catalogConsoleRouter, catalogUploadRouter } from './modules/catalog/cat
 import { widgetsRouter } from './modules/widgets/widgets.routes.ts';
 import { createBilling } from './modules/billing/billing.ts';
 import { buildOpenApiDocument } from './openapi/document.ts';
+import { abuseLimits, createAbuseGuard } from './modules/abuse/abuse-guard.ts';
 
 export interface AppDeps {
   env: Env;
@@ -67,6 +68,7 @@ export function createApp(deps: AppDeps) {
   app.platform = platform;
   const billing = createBilling({ env, db, pool, logger, resolver: platform.resolver, mailer });
   app.billing = billing;
+  const abuse = createAbuseGuard({ limits: abuseLimits(env), resolver: platform.resolver });
   const openApiDocument = buildOpenApiDocument();
   app.disable('x-powered-by');
   // Weak ETags hash every JSON body; API answers are not cached by validators, so skip the work.
@@ -101,13 +103,15 @@ export function createApp(deps: AppDeps) {
       strictTransportSecurity: false,
     }),
   );
+  // Per-address limits for /v1 and /console-api, before any body, key or session work.
+  app.use(abuse.addressGuard);
   // Stripe webhooks need the raw body to verify its signature: before the JSON parser.
   app.use(billing.webhookRouter);
   app.use(express.json({ limit: env.BODY_LIMIT_BYTES, type: ['application/json', 'application/*+json'] }));
 
   app.use(healthRouter(db));
   app.use(problemsRouter());
-  app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {} }));
+  app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {}, abuse }), abuse.announceFailure);
   // The console API: CSRF defence, no-store and the session context for all of it, then the routers.
   // The catalog's CSV upload is multipart, which consoleSecurity refuses: it brings the same defences itself.
   app.use('/console-api', catalogUploadRouter({ env, db }));
@@ -118,6 +122,7 @@ export function createApp(deps: AppDeps) {
   app.use('/console-api', billing.consoleRouter);
   app.use('/console-api', playgroundConsoleRouter({ db, platform }));
   app.use('/console-api', catalogConsoleRouter({ db }));
+  app.use('/console-api', abuse.announceFailure);
   // The embeddable widget bundle (versioned and major-alias paths) and its access check.
   app.use(widgetsRouter({ resolver: platform.resolver }));
 

@@ -33,6 +33,15 @@ export const EnvSchema = z.object({
   OHMSTEAD_PG_PORT: z.coerce.number().int().min(1024).max(65535).default(54329),
   /** Time allowed for in-flight requests to finish on shutdown, in milliseconds. */
   SHUTDOWN_GRACE_MS: z.coerce.number().int().min(0).max(120_000).default(10_000),
+  // --- Abuse limits, per instance and per minute (server/modules/abuse/abuse-guard.ts)
+  /** /v1 answers 4xx without an authenticated key, and console 401s, per client address. */
+  ABUSE_ADDRESS_FAILURES_PER_MINUTE: z.coerce.number().int().min(1).max(10_000_000).default(120),
+  /** 4xx answers to one API key's calculation calls. */
+  ABUSE_KEY_FAILURES_PER_MINUTE: z.coerce.number().int().min(1).max(10_000_000).default(120),
+  /** One API key's unmetered calls (reference data, usage). */
+  ABUSE_KEY_READS_PER_MINUTE: z.coerce.number().int().min(1).max(10_000_000).default(300),
+  /** Console API requests per client address. */
+  ABUSE_CONSOLE_REQUESTS_PER_MINUTE: z.coerce.number().int().min(1).max(10_000_000).default(600),
   // --- Accounts: links, mail, sessions, sign-in throttling
   /** The console's public address, used in e-mailed links (default: http://HOST:PORT). Never taken from the request's Host. */
   PUBLIC_URL: z.url({ protocol: /^https?$/ }).optional(),

@@ -9,6 +9,7 @@ import type { Db } from '../db/client.ts';
 import { AppError } from '../http/problem.ts';
 import { requireApiKey, v1Cors } from './metering/api-auth.ts';
 import type { Platform } from './metering/platform.ts';
+import type { AbuseGuard } from './abuse/abuse-guard.ts';
 import { CSV_LIMIT_BYTES } from './capacity-tests/capacity-tests.routes.ts';
 import { usageRouter } from './usage/usage.routes.ts';
 import { packsRouter } from './packs/packs.routes.ts';
@@ -59,7 +60,7 @@ function withOwnOrigin(req: Request): Request {
   return Object.create(req, { get: { value: (name: string) => (name.toLowerCase() === 'origin' ? own : req.get(name)) } }) as Request;
 }
 
-export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Record<string, object> }) {
+export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Record<string, object>; abuse?: AbuseGuard }) {
   const { db, platform } = deps;
   const router = Router();
   router.use(v1Cors(platform.resolver));
@@ -71,6 +72,8 @@ export function v1Router(deps: { db: Db; platform: Platform; documentedPaths: Re
     if (req.method === 'GET' && EMBED_READABLE_PATHS.has(req.path)) return calculationKey(withOwnOrigin(req), res, next);
     return (req.method === 'POST' ? calculationKey : referenceKey)(req, res, next);
   });
+  // Per-key limits on what the metering does not limit: refused calculations, unmetered reads.
+  if (deps.abuse) router.use(deps.abuse.keyGuard);
   // CSV bodies (capacity-test logs) are read here, before idempotency hashes the payload.
   const csvText = express.text({ type: 'text/csv', limit: CSV_LIMIT_BYTES });
   const readCsv: RequestHandler = (req, res, next) => (req.headers['content-type']?.startsWith('text/csv') ? csvText(req, res, next) : next());

@@ -22,3 +22,5 @@ import '../modules/billing/billing.openapi.ts';
 import '../modules/playground/playground.openapi.ts';
 import '../modules/catalog/catalog.openapi.ts';
 import '../modules/widgets/widgets.openapi.ts';
+import '../modules/keys/keys.openapi.ts';
+import '../modules/usage/usage-console.openapi.ts';

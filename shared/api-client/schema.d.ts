@@ -7056,6 +7056,544 @@ export interface paths {
         };
         trace?: never;
     };
+    "/console-api/keys": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The organization's API keys
+         * @description Every server and embed key of the active organization, newest first: name, kind, display prefix and last four characters, origins, who created it, last use, expiry and status. Never the secret or its hash.
+         *
+         *     Roles: owner, admin, developer, viewer (in the active organization).
+         */
+        get: {
+            parameters: {
+                query?: never;
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The keys. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["ApiKeyList"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Your role in the active organization does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        /**
+         * Create an API key
+         * @description Creates a server key, or an embed key with the origins it may be used from. The whole key is in this answer only: it is stored as a keyed hash. Audited as api_key.created.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path?: never;
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["CreateApiKeyInput"];
+                };
+            };
+            responses: {
+                /** @description The key, with its secret shown this once. */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["CreatedApiKey"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The plan allows no more keys or origins. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/keys/{keyId}/revoke": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Revoke an API key
+         * @description Stops the key at once on this server and within the key cache time elsewhere. Developers may revoke only the keys they created. Audited as api_key.revoked.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path: {
+                    keyId: string;
+                };
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description The key as it is now. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["RevokedApiKey"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No such key in this organization. */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The key is already revoked or expired. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/keys/{keyId}/rotate": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        /**
+         * Rotate an API key
+         * @description Creates a replacement key (its secret in this answer only) and lets the old one keep working for the overlap, then expire. Developers may rotate only the keys they created. Audited as api_key.rotated.
+         *
+         *     Roles: owner, admin, developer (in the active organization).
+         */
+        post: {
+            parameters: {
+                query?: never;
+                header: {
+                    /** @description Required on every state-changing console request (cross-site request forgery defence). */
+                    "X-Ohmstead-CSRF": "1";
+                };
+                path: {
+                    keyId: string;
+                };
+                cookie?: never;
+            };
+            requestBody: {
+                content: {
+                    "application/json": components["schemas"]["RotateApiKeyInput"];
+                };
+            };
+            responses: {
+                /** @description The new key with its secret, and the old key with its expiry. */
+                201: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["RotatedApiKey"];
+                    };
+                };
+                /** @description The request could not be read (malformed JSON or parameters). */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Refused as a possible cross-site request (missing X-Ohmstead-CSRF, foreign Origin or Sec-Fetch-Site), or your role does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description No such key in this organization. */
+                404: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The key is revoked or expired. */
+                409: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body is not JSON. */
+                415: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description The body failed validation; `errors[]` lists each field by JSON Pointer. */
+                422: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/usage": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * The organization's usage for a month
+         * @description Calls counted for a UTC calendar month (default: this one) against the plan: by day, by endpoint, by key, and by day and endpoint. These are the counts the bill is made from.
+         *
+         *     Roles: owner, admin, developer, viewer (in the active organization).
+         */
+        get: {
+            parameters: {
+                query?: {
+                    month?: string;
+                };
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description Usage for the month. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["ConsoleUsage"];
+                    };
+                };
+                /** @description The month is not YYYY-MM. */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Your role in the active organization does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/console-api/requests": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        /**
+         * Recent API calls
+         * @description The organization's recent /v1 calls (time, key, endpoint, status, duration, request id), newest first, filtered by key, endpoint or status class and paged by `before`. A diagnostic view kept 30 days; the counts are the bill.
+         *
+         *     Roles: owner, admin, developer, viewer (in the active organization).
+         */
+        get: {
+            parameters: {
+                query?: {
+                    limit?: number;
+                    before?: number;
+                    keyId?: string;
+                    endpoint?: string;
+                    status?: "2xx" | "4xx" | "5xx";
+                };
+                header?: never;
+                path?: never;
+                cookie?: never;
+            };
+            requestBody?: never;
+            responses: {
+                /** @description A page of calls. */
+                200: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/json": components["schemas"]["RequestLogPage"];
+                    };
+                };
+                /** @description A filter is not valid. */
+                400: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Not signed in, or the session has ended. */
+                401: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description Your role in the active organization does not allow this. */
+                403: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+                /** @description An unexpected error; quote the request id. */
+                500: {
+                    headers: {
+                        [name: string]: unknown;
+                    };
+                    content: {
+                        "application/problem+json": components["schemas"]["ProblemDetails"];
+                    };
+                };
+            };
+        };
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
 }
 export type webhooks = Record<string, never>;
 export interface components {
@@ -9491,6 +10029,86 @@ export interface components {
              *     ]
              */
             allowedOrigins?: string[];
+        };
+        ApiKeyList: {
+            items: components["schemas"]["ApiKey"][];
+        };
+        CreatedApiKey: {
+            key: components["schemas"]["ApiKey"];
+            /** @description The whole key. Shown once: store it now. */
+            secret: string;
+        };
+        CreateApiKeyInput: {
+            /** @example Checkout service */
+            name: string;
+            kind: components["schemas"]["ApiKeyKind"];
+            /**
+             * @description Embed keys only: the sites (scheme://host[:port]) the key may be used from.
+             * @example [
+             *       "https://shop.example"
+             *     ]
+             */
+            allowedOrigins?: string[];
+            /** @description Optional expiry, in days from now. */
+            expiresInDays?: number;
+        };
+        RevokedApiKey: {
+            key: components["schemas"]["ApiKey"];
+        };
+        RotatedApiKey: {
+            key: components["schemas"]["ApiKey"];
+            secret: string;
+            previous: components["schemas"]["ApiKey"];
+        };
+        RotateApiKeyInput: {
+            /**
+             * @description How long the old key keeps working, hours.
+             * @default 24
+             * @example 24
+             */
+            overlapHours?: number;
+        };
+        ConsoleUsage: {
+            month: string;
+            plan: string;
+            quota: number;
+            ratePerMinute: number;
+            used: number;
+            remaining: number;
+            resetsAt: string;
+            byDay: {
+                date: string;
+                calls: number;
+            }[];
+            byEndpoint: {
+                endpoint: string;
+                calls: number;
+            }[];
+            byKey: {
+                keyId: string;
+                name: string;
+                displayPrefix: string;
+                calls: number;
+            }[];
+            byDayAndEndpoint: {
+                date: string;
+                endpoint: string;
+                calls: number;
+            }[];
+        };
+        RequestLogPage: {
+            items: {
+                id: number;
+                createdAt: string;
+                apiKeyId: string | null;
+                keyName: string | null;
+                method: string;
+                endpoint: string;
+                status: number;
+                durationMs: number;
+                requestId: string | null;
+            }[];
+            nextBefore: number | null;
         };
     };
     responses: never;

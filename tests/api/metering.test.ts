@@ -117,7 +117,8 @@ describe('what is not counted', () => {
     expect((await request(app).get('/v1/reference/chemistries')).status).toBe(401);
     const res = await request(app).get('/v1/reference/chemistries').set('Authorization', `Bearer ${secret}`);
     expect(res.status).toBe(200);
-    expect(res.headers.ratelimit).toBeUndefined();
+    // Not metered: no monthly or per-minute calculation policy; only the key's unmetered-read limit (abuse guard).
+    expect(res.headers.ratelimit).toMatch(/^"key-reads";r=\d+;t=\d+$/);
     expect(await counted(org.id)).toBe(0);
   });
 });

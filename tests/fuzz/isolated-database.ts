@@ -21,7 +21,7 @@ export async function createIsolatedDatabase(label: string): Promise<{ url: stri
 }
 
 /** Every table of the Drizzle schema, by its SQL name. */
-export const schemaTables: string[] = Object.values(schema)
+export const schemaTables: string[] = (Object.values(schema) as unknown[])
   .filter((value): value is PgTable => is(value, PgTable))
   .map((table) => getTableName(table))
   .sort();

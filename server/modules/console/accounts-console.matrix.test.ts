@@ -19,6 +19,7 @@ import { playgroundCalculations } from '../playground/playground.calcs.ts';
 import { createTestKey } from '../../../tests/setup/fixtures.ts';
 import { apiKeys, catalogHosts, catalogPacks } from '../../db/schema/index.ts';
 import { seedDemoCatalog } from '../catalog/catalog.seed.ts';
+import { requestLog, usageCounters } from '../../db/schema/index.ts';
 
 // Billing routes talk to the payment provider: the Stripe-shaped fake starts first and the app is pointed at it.
 let billingFake: BillingFake;
@@ -270,6 +271,75 @@ const rows: Row[] = [
   // The catalog: every role reads, owners, admins and developers change it; the outsider acts on B's catalog
   // (an item of A addressed from B is 404) and A's catalog is never touched by B.
   ...catalogRows(),
+  // Keys: every role lists, owners/admins/developers create; revoking and rotating someone else's key needs
+  // owner or admin; A's keys addressed from B are 404 and never appear in B's answers.
+  {
+    method: 'get',
+    path: '/console-api/keys',
+    send: async (w) => {
+      await createTestKey(kit.db, kit.app.platform!.hashSecret, w.a.org.id, { name: 'key-of-org-a' });
+      return { url: '/console-api/keys' };
+    },
+    check: (w, res) => {
+      if (w.actor === 'outsider') expect(JSON.stringify(res.body)).not.toContain('key-of-org-a');
+      else if (res.status === 200) expect(res.body.items.map((k: { name: string }) => k.name)).toEqual(['key-of-org-a']);
+    },
+  },
+  {
+    method: 'post',
+    path: '/console-api/keys',
+    send: () => ({ url: '/console-api/keys', body: { name: 'Matrix key', kind: 'server' } }),
+    check: async (w) => {
+      const inA = await kit.db.select().from(apiKeys).where(eq(apiKeys.organizationId, w.a.org.id));
+      expect(inA.length).toBe(['owner', 'admin', 'developer'].includes(w.actor) ? 1 : 0);
+    },
+  },
+  {
+    method: 'post',
+    path: '/console-api/keys/{keyId}/revoke',
+    send: async (w) => ({ url: `/console-api/keys/${(await createTestKey(kit.db, kit.app.platform!.hashSecret, w.a.org.id)).key.id}/revoke` }),
+    override: { developer: 403, outsider: 404 },
+    check: async (w) => {
+      const [key] = await kit.db.select().from(apiKeys).where(eq(apiKeys.organizationId, w.a.org.id));
+      expect(key!.revokedAt !== null).toBe(['owner', 'admin'].includes(w.actor));
+    },
+  },
+  {
+    method: 'post',
+    path: '/console-api/keys/{keyId}/rotate',
+    send: async (w) => ({ url: `/console-api/keys/${(await createTestKey(kit.db, kit.app.platform!.hashSecret, w.a.org.id)).key.id}/rotate`, body: { overlapHours: 1 } }),
+    override: { developer: 403, outsider: 404 },
+    check: async (w) => {
+      const inA = await kit.db.select().from(apiKeys).where(eq(apiKeys.organizationId, w.a.org.id));
+      expect(inA.length).toBe(['owner', 'admin'].includes(w.actor) ? 2 : 1);
+    },
+  },
+  // Usage and the request log: every role of A reads A's; the outsider reads only B's.
+  {
+    method: 'get',
+    path: '/console-api/usage',
+    send: async (w) => {
+      const { key } = await createTestKey(kit.db, kit.app.platform!.hashSecret, w.a.org.id, { name: 'usage-key-of-org-a' });
+      await kit.db.insert(usageCounters).values({ organizationId: w.a.org.id, apiKeyId: key.id, endpoint: '/v1/packs/energy', day: new Date().toISOString().slice(0, 10), calls: 7 });
+      return { url: '/console-api/usage' };
+    },
+    check: (w, res) => {
+      if (w.actor === 'outsider') expect(res.body.used).toBe(0);
+      else if (res.status === 200) expect(res.body.byKey.map((k: { name: string; calls: number }) => [k.name, k.calls])).toEqual([['usage-key-of-org-a', 7]]);
+    },
+  },
+  {
+    method: 'get',
+    path: '/console-api/requests',
+    send: async (w) => {
+      await kit.db.insert(requestLog).values({ organizationId: w.a.org.id, method: 'POST', endpoint: '/v1/packs/energy', status: 200, durationMs: 3, requestId: 'request-of-org-a' });
+      return { url: '/console-api/requests' };
+    },
+    check: (w, res) => {
+      if (w.actor === 'outsider') expect(JSON.stringify(res.body)).not.toContain('request-of-org-a');
+      else if (res.status === 200) expect(res.body.items.map((i: { requestId: string }) => i.requestId)).toEqual(['request-of-org-a']);
+    },
+  },
   // A key's name and allowed origins (the Widgets page): developers only for the keys they created.
   {
     method: 'patch',
