@@ -16,10 +16,11 @@ import { startE2E, type E2E } from './harness.ts';
 let e2e: E2E;
 let listed: SampleSite;
 let unlisted: SampleSite;
+let embedKey: string;
 
 beforeAll(async () => {
   e2e = await startE2E();
-  const embedKey = generateApiKey('embed');
+  embedKey = generateApiKey('embed');
   listed = await startSampleSite({ port: 0, apiUrl: e2e.baseUrl, embedKey });
   unlisted = await startSampleSite({ port: 0, apiUrl: e2e.baseUrl, embedKey });
   // The demo organization's embed key lists the first page's origin only (the second differs by its port).
@@ -177,4 +178,51 @@ describe('widgets on a third-party page', () => {
       throw error;
     }
   }, 60_000);
+});
+
+describe('the console pages', () => {
+  it('when the owner opens the Catalog page, then the catalog, the matrix and per-row CSV problems are shown', async () => {
+    const page = await e2e.newPage();
+    try {
+      await e2e.signIn(page);
+      await page.goto('/catalog');
+      await page.getByRole('cell', { name: 'LPS-CW48-50' }).waitFor();
+      const matrix = page.getByRole('region', { name: 'Compatibility matrix' });
+      await matrix.getByText('12 of 12 pairs shown').waitFor();
+      await matrix.getByLabel('Verdict').selectOption('incompatible');
+      await expect.poll(async () => (await matrix.getByRole('status').textContent()) ?? '').toMatch(/^\d+ of 12 pairs shown$/);
+      const packs = page.getByRole('region', { name: 'Packs' });
+      await packs.getByLabel('CSV file of packs').setInputFiles({ name: 'packs.csv', mimeType: 'text/csv', buffer: Buffer.from('sku,name,chemistry,seriesCells,capacityAh\nX-1,Pack,lfp,four,100\n') });
+      await packs.getByRole('button', { name: 'Import' }).click();
+      const problem = packs.getByRole('alert');
+      await problem.getByText('Nothing was imported', { exact: true }).waitFor();
+      expect(await problem.getByRole('row').nth(1).textContent()).toMatch(/^12seriesCells"four" is not a number/);
+      await e2e.screenshot(page, 'console-catalog');
+    } catch (error) {
+      await e2e.screenshot(page, 'console-catalog-failure');
+      throw error;
+    }
+  }, 90_000);
+
+  it('when the owner opens the Widgets page with the embed key, then the origins can be edited and the real widget previews', async () => {
+    const page = await e2e.newPage();
+    try {
+      await e2e.signIn(page);
+      await page.goto('/widgets');
+      await page.getByLabel(/^Paste Demo widgets/).fill(embedKey);
+      await page.getByRole('button', { name: 'Use this key' }).click();
+      await page.getByLabel('Snippet to paste into your page').getByText(`key="${embedKey}"`).waitFor();
+      // The preview runs on the console's origin: add it to the key beside the preview.
+      await page.getByRole('button', { name: `Add ${new URL(e2e.baseUrl).origin}` }).click();
+      await page.getByRole('listitem').filter({ hasText: new URL(e2e.baseUrl).origin }).waitFor();
+      const preview = page.getByRole('region', { name: 'Live preview' });
+      await expect.poll(() => preview.locator('ohmstead-compatibility').getByRole('combobox', { name: 'Your unit', exact: true }).locator('option').count(), { timeout: 15_000 }).toBe(4);
+      await page.getByLabel('Widget', { exact: true }).selectOption('ohmstead-wire-fuse');
+      await preview.locator('ohmstead-wire-fuse').getByRole('button', { name: 'Size the wire and fuse' }).waitFor();
+      await e2e.screenshot(page, 'console-widgets');
+    } catch (error) {
+      await e2e.screenshot(page, 'console-widgets-failure');
+      throw error;
+    }
+  }, 90_000);
 });

@@ -17,13 +17,13 @@ function loadBundle(): void {
  * The widget as a page would show it: the real bundle, the element created with the chosen attributes
  * (made by hand: React reserves the `key` prop the element needs as an attribute).
  */
-export function WidgetPreview({ options }: { options: WidgetOptions }) {
+export function WidgetPreview({ options, refresh }: { options: WidgetOptions; /** Changes when the key's sites change: the widget is made anew. */ refresh: string }) {
   const host = useRef<HTMLDivElement>(null);
   useEffect(() => {
     loadBundle();
     const el = document.createElement(options.tag);
     for (const [name, value] of widgetAttributes(options)) el.setAttribute(name, value);
     host.current?.replaceChildren(el);
-  }, [options]);
+  }, [options, refresh]);
   return <div ref={host} className="rounded-lg border border-dashed border-line bg-white p-3" />;
 }

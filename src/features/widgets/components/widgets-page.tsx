@@ -102,7 +102,7 @@ export function WidgetsPage() {
                 <p className="text-sm text-graphite-soft">Paste the key beside to see the snippet and the preview.</p>
               )}
             </Panel>
-            <Panel title="Live preview">{full ? <WidgetPreview options={full} /> : <p className="text-sm text-graphite-soft">Waiting for the key.</p>}</Panel>
+            <Panel title="Live preview">{full ? <WidgetPreview options={full} refresh={selected.allowedOrigins.join(' ')} /> : <p className="text-sm text-graphite-soft">Waiting for the key.</p>}</Panel>
           </div>
         </div>
       ) : null}
