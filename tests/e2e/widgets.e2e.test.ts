@@ -8,7 +8,9 @@
 import type { ConsoleMessage, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startSampleSite, type SampleSite } from '../../server/fakes/sample-site.ts';
-import { generateApiKey } from '../../server/modules/keys/key-format.ts';
+import { eq } from 'drizzle-orm';
+import { apiKeys } from '../../server/db/schema/index.ts';
+import { generateApiKey, hashApiKey } from '../../server/modules/keys/key-format.ts';
 import { keyHashSecret } from '../../server/modules/metering/platform.ts';
 import { seedDemoEmbedKey } from '../../server/modules/widgets/widgets.seed.ts';
 import { startE2E, type E2E } from './harness.ts';
@@ -27,6 +29,8 @@ beforeAll(async () => {
   await seedDemoEmbedKey(e2e.db, { embedKey, hashSecret: keyHashSecret(e2e.env), origins: [listed.origin] });
 }, 180_000);
 afterAll(async () => {
+  // Other browser tests share the demo organization in this run's database: leave its key count as it was.
+  if (e2e && embedKey) await e2e.db.update(apiKeys).set({ revokedAt: new Date() }).where(eq(apiKeys.keyHash, hashApiKey(embedKey, keyHashSecret(e2e.env))));
   await listed?.close();
   await unlisted?.close();
   await e2e?.close();
