@@ -1,4 +1,4 @@
-import { existsSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { repoRoot } from './postgres.ts';
 
@@ -14,19 +14,58 @@ function newestMtimeMs(path: string, skip: readonly string[] = []): number {
   return newest;
 }
 
-/** Builds the console with Vite when dist/ is missing or older than its sources. */
-export async function buildConsoleIfStale(log: (line: string) => void): Promise<void> {
-  await buildWidgetsIfStale(log);
-  const stamp = join(repoRoot, 'dist', '.source-mtime');
-  const newest = String(Math.max(...inputs.map((p) => newestMtimeMs(join(repoRoot, p)))));
-  if (existsSync(stamp) && existsSync(join(repoRoot, 'dist', 'index.html')) && readFileSync(stamp, 'utf8') === newest) {
-    log('The console build is current.');
-    return;
+/**
+ * Runs `fn` while holding a lock folder, so concurrent processes (browser test files, a second npm start)
+ * build one after the other instead of into the same folder. A lock older than ten minutes is stale.
+ */
+async function withBuildLock<T>(name: string, fn: () => Promise<T>): Promise<T> {
+  const lock = join(repoRoot, '.data', `${name}.build-lock`);
+  mkdirSync(join(repoRoot, '.data'), { recursive: true });
+  for (;;) {
+    try {
+      mkdirSync(lock);
+      break;
+    } catch {
+      const age = existsSync(lock) ? Date.now() - statSync(lock).mtimeMs : 0;
+      if (age > 10 * 60_000) rmSync(lock, { recursive: true, force: true });
+      else await new Promise((r) => setTimeout(r, 250));
+    }
   }
-  log('Building the console (vite build)…');
-  const { build } = await import('vite');
-  await build({ root: repoRoot, configFile: join(repoRoot, 'vite.config.ts'), logLevel: 'warn' });
-  writeFileSync(stamp, newest);
+  try {
+    return await fn();
+  } finally {
+    rmSync(lock, { recursive: true, force: true });
+  }
+}
+
+/**
+ * Builds the console with Vite when dist/ is missing or older than its sources: into a fresh folder that is
+ * then swapped in, under a lock, so a running server or a parallel build never sees half a build.
+ */
+export async function buildConsoleIfStale(log: (line: string) => void): Promise<void> {
+  await withBuildLock('widgets', () => buildWidgetsIfStale(log));
+  await withBuildLock('console', async () => {
+    const dist = join(repoRoot, 'dist');
+    const newest = String(Math.max(...inputs.map((p) => newestMtimeMs(join(repoRoot, p)))));
+    if (existsSync(join(dist, '.source-mtime')) && existsSync(join(dist, 'index.html')) && readFileSync(join(dist, '.source-mtime'), 'utf8') === newest) {
+      log('The console build is current.');
+      return;
+    }
+    log('Building the console (vite build)…');
+    const staging = join(repoRoot, '.data', `console-dist-${process.pid}-${Date.now()}`);
+    const { build } = await import('vite');
+    try {
+      await build({ root: repoRoot, configFile: join(repoRoot, 'vite.config.ts'), logLevel: 'warn', build: { outDir: staging, emptyOutDir: true } });
+    } catch (error) {
+      rmSync(staging, { recursive: true, force: true });
+      throw error;
+    }
+    writeFileSync(join(staging, '.source-mtime'), newest);
+    const old = `${dist}.old-${process.pid}`;
+    if (existsSync(dist)) renameSync(dist, old);
+    renameSync(staging, dist);
+    rmSync(old, { recursive: true, force: true });
+  });
 }
 
 // ── The widget bundle (widgets/vite.config.ts), built beside the console ─────────────────────────────────
