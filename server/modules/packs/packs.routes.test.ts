@@ -48,10 +48,10 @@ describe('POST /v1/packs/energy', () => {
     expect(res.body.errors[0].pointer).toBe('#/pack/chemistry');
   });
 
-  it('when the capacity is so small that the cost per kWh overflows, then it is a 422 calculation error, not a 500', async () => {
+  it('when the capacity is below 1 mAh (where costs per kWh would overflow), then it is a 422 naming the field, not a 500', async () => {
     const res = await api.post('/v1/packs/energy', { pack: { chemistry: 'lfp', seriesCells: 1, capacityAh: 1e-320 }, price: { amount: 1e8, currency: 'USD' } });
     expect(res.status).toBe(422);
-    expect(res.body.type).toBe('/problems/calculation-error');
+    expect(res.body.type).toBe('/problems/validation-error');
     expect(res.body.errors[0].pointer).toBe('#/pack/capacityAh');
   });
 });
