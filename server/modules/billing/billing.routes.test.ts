@@ -140,14 +140,15 @@ describe('the billing walk: checkout, failed payment and grace, recovery, cancel
 
     // The grace period runs out (the time is injected: eight days on).
     const later = new Date(Date.now() + 8 * 86_400_000);
-    expect(await kit.app.billing!.service.expireGracePeriods(later)).toBe(1);
+    // The sweep covers every organization in the database (other test files share it): this one is among them.
+    expect(await kit.app.billing!.service.expireGracePeriods(later)).toContain(o.org.id);
     expect(await o.meteredLimits()).toEqual({ plan: 'free', quota: plans.free.monthlyQuotaCalls });
     const downgraded = await o.overview();
     expect(downgraded.plan.id).toBe('free');
     expect(downgraded.paymentIssue).toMatchObject({ graceExpired: true });
     expect(downgraded.subscription!.status).toBe('past_due');
     // A later sync of the same past_due subscription (at the real time) does not lift the downgrade.
-    expect(await kit.app.billing!.service.expireGracePeriods(later)).toBe(0);
+    expect(await kit.app.billing!.service.expireGracePeriods(later)).not.toContain(o.org.id);
 
     // A working card pays the open invoice: invoice.paid clears the issue and restores the plan.
     expect((await submitForm(`${portalUrl}/card`, { card: TEST_CARDS.pays })).body).toContain('the open invoice is paid');

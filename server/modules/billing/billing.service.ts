@@ -298,14 +298,15 @@ export function createBillingService(deps: BillingServiceDeps) {
     },
 
     /** Moves every organization whose grace period has ended to the free plan (run periodically). */
-    async expireGracePeriods(now: Date = clock()): Promise<number> {
-      let changed = 0;
+    /** Downgrades every organization whose grace period has ended; returns the ids whose plan changed. */
+    async expireGracePeriods(now: Date = clock()): Promise<string[]> {
+      const changed: string[] = [];
       for (const organizationId of await accountsWithGraceEnded(db, now)) {
         const effect = await db.transaction(async (tx) => {
           await lockAccount(tx, organizationId);
           return reconcile(tx, organizationId, now, { reason: 'payment_grace_period_ended' });
         });
-        if (effect.planChanged) changed += 1;
+        if (effect.planChanged) changed.push(organizationId);
         await afterCommit(organizationId, effect);
       }
       return changed;
