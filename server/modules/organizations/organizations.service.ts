@@ -1,3 +1,5 @@
+import { and, eq, notInArray } from 'drizzle-orm';
+import { billingSubscriptions } from '../../db/schema/index.ts';
 import { randomBytes } from 'node:crypto';
 import type { Organization } from '#shared/schemas/accounts.ts';
 import { AppError } from '../../http/problem.ts';
@@ -51,6 +53,16 @@ export async function deleteOrganizationAudited(tx: Tx, organizationId: string, 
   if (confirmName !== org.name) {
     throw new AppError('validation-error', `Type the organization's name exactly ("${org.name}") to confirm.`, {
       errors: [{ pointer: '#/confirmName', detail: 'Does not match the organization name', code: 'confirm_mismatch' }],
+    });
+  }
+  // A live subscription would go on being charged after its organization is gone: it is cancelled first.
+  const live = await tx
+    .select({ id: billingSubscriptions.stripeSubscriptionId })
+    .from(billingSubscriptions)
+    .where(and(eq(billingSubscriptions.organizationId, organizationId), notInArray(billingSubscriptions.status, ['canceled', 'incomplete_expired'])));
+  if (live.length > 0) {
+    throw new AppError('conflict', 'This organization has a paid subscription. Cancel it on the Billing page (Manage billing) before deleting the organization, so it is not charged again.', {
+      extensions: { reason: 'subscription_active' },
     });
   }
   await audit(tx, { ...meta, organizationId: null, actorUserId, action: 'organization.deleted', targetType: 'organization', targetId: organizationId, details: { name: org.name, slug: org.slug } });
