@@ -18,7 +18,7 @@ export const sections: Section[] = [
   { path: '/widgets', label: 'Widgets', summary: 'Configure an embeddable calculator, preview it live and copy the snippet.' },
   { path: '/catalog', label: 'Catalog', summary: 'Your own host units and packs, by form or CSV upload, for your widgets.' },
   { path: '/team', label: 'Team', summary: 'Members, their roles and open invitations.' },
-  { path: '/billing', label: 'Billing', summary: 'Your plan, invoices and payment method.' },
+  { path: '/billing', label: 'Billing', summary: 'Your plan, invoices and payment method.', roles: ['owner'] },
   { path: '/audit', label: 'Audit log', summary: 'Who did what, when and from where.', roles: ['owner', 'admin'] },
   { path: '/settings', label: 'Settings', summary: 'Organization name and preferences.' },
 ];

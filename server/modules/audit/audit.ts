@@ -8,7 +8,8 @@
  * organization.created, organization.renamed, organization.deleted, organization.ownership_transferred,
  * member.joined, member.role_changed, member.removed, member.left, invitation.created,
  * invitation.revoked, invitation.accepted — and, from other modules, api_key.created, api_key.revoked,
- * api_key.rotated, plan.changed.
+ * api_key.rotated, api_key.updated, plan.changed, billing.checkout_started, billing.portal_opened,
+ * billing.payment_failed, billing.payment_recovered.
  */
 import type { Request, Response } from 'express';
 import { sql } from 'drizzle-orm';
