@@ -33,9 +33,9 @@ const shapes: Array<[RegExp, string]> = [
  * What in a response body looks like a leaked secret. `allowApiKeySecret`: the body is the one answer that
  * hands out a new key (create, rotate), which may carry that one secret.
  */
-export function findLeaks(body: string, secrets: Iterable<string>, options: { allowApiKeySecret?: boolean } = {}): string[] {
+export function findLeaks(body: string, secrets: Iterable<string>, options: { allowApiKeySecret?: boolean; valuesOnly?: boolean } = {}): string[] {
   const found: string[] = [];
-  for (const [pattern, what] of shapes) if (pattern.test(body)) found.push(what);
+  if (!options.valuesOnly) for (const [pattern, what] of shapes) if (pattern.test(body)) found.push(what);
   if (!options.allowApiKeySecret && /ohs_srv_[A-Za-z0-9]{32,}/.test(body)) found.push('a server key secret');
   for (const secret of secrets) if (body.includes(secret)) found.push(`a stored secret (${secret.slice(0, 6)}…)`);
   return found;
