@@ -12,6 +12,7 @@ import type pg from 'pg';
 import type { Db } from './db/client.ts';
 import type { Env } from './env.ts';
 import { errorHandler, notFoundHandler } from './http/error-handler.ts';
+import { jsonBody } from './http/json-body.ts';
 import type { Logger } from './logger.ts';
 import { healthRouter } from './modules/health/health.routes.ts';
 import { problemsRouter } from './modules/problems/problems.routes.ts';
@@ -107,7 +108,7 @@ export function createApp(deps: AppDeps) {
   app.use(abuse.addressGuard);
   // Stripe webhooks need the raw body to verify its signature: before the JSON parser.
   app.use(billing.webhookRouter);
-  app.use(express.json({ limit: env.BODY_LIMIT_BYTES, type: ['application/json', 'application/*+json'] }));
+  app.use(jsonBody({ limit: env.BODY_LIMIT_BYTES }));
 
   app.use(healthRouter(db));
   app.use(problemsRouter());

@@ -86,6 +86,11 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) 
     send(res, 400, problemBody('malformed-request', 'A path segment of the URL is not valid percent-encoded UTF-8.', refs));
     return;
   }
+  // A body that claims a content coding it does not have (zlib refuses it) is the client's error.
+  if (typeof (err as { code?: unknown })?.code === 'string' && /^Z_/.test((err as { code: string }).code)) {
+    send(res, 400, problemBody('malformed-request', `The body could not be decoded with its Content-Encoding: ${(err as Error).message}.`, refs));
+    return;
+  }
   req.log?.error({ err }, 'unhandled error');
   send(res, 500, problemBody('internal-error', 'Something went wrong on our side. Quote the request id when you report it.', refs));
 };
