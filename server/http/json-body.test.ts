@@ -19,7 +19,7 @@ async function rawPost(headers: Record<string, string>, body: Buffer): Promise<{
   await new Promise((r) => server.once('listening', r));
   const { port } = server.address() as { port: number };
   try {
-    const res = await fetch(`http://127.0.0.1:${port}/echo`, { method: 'POST', headers, body });
+    const res = await fetch(`http://127.0.0.1:${port}/echo`, { method: "POST", headers, body: new Uint8Array(body) });
     return { status: res.status, text: await res.text() };
   } finally {
     server.close();
