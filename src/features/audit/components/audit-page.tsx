@@ -3,6 +3,7 @@ import type { AuditEvent } from '#shared/schemas/accounts.ts';
 import { Button } from '../../../components/ui/button.tsx';
 import { SelectField } from '../../../components/ui/field.tsx';
 import { EmptyState, ErrorState, LoadingState, PageHeader, Time } from '../../../components/ui/feedback.tsx';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 import { useAuditEvents } from '../api/get-audit-events.ts';
 
 const filters = [
@@ -59,7 +60,7 @@ export function AuditPage() {
       {events.isError ? <ErrorState error={events.error} onRetry={() => void events.refetch()} /> : null}
       {events.isSuccess && rows.length === 0 ? <EmptyState title="Nothing recorded yet.">Actions appear here as people sign in, invite and change roles.</EmptyState> : null}
       {rows.length > 0 ? (
-        <div className="overflow-x-auto rounded-lg border border-line bg-white/60">
+        <TableScroll label="Audit events" className="rounded-lg border border-line bg-white/60">
           <table className="w-full min-w-[48rem] text-left text-sm">
             <caption className="sr-only">Audit events, newest first</caption>
             <thead className="border-b border-line text-graphite-soft">
@@ -91,7 +92,7 @@ export function AuditPage() {
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       ) : null}
       {events.hasNextPage ? (
         <Button tone="secondary" busy={events.isFetchingNextPage} onClick={() => void events.fetchNextPage()}>

@@ -1,4 +1,5 @@
 import { EmptyState, ErrorState, LoadingState, Panel } from '../../../components/ui/feedback.tsx';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 import { useInvoices } from '../api/get-invoices.ts';
 import { formatDay, formatMoney } from './format.ts';
 
@@ -11,7 +12,7 @@ export function InvoiceList() {
       {invoices.isError ? <ErrorState error={invoices.error} onRetry={() => void invoices.refetch()} /> : null}
       {invoices.data && invoices.data.items.length === 0 ? <EmptyState title="No invoices yet.">They appear here after the first payment.</EmptyState> : null}
       {invoices.data && invoices.data.items.length > 0 ? (
-        <div className="overflow-x-auto">
+        <TableScroll label="Invoices">
           <table className="w-full min-w-[36rem] text-left text-sm">
             <caption className="sr-only">Invoices, newest first</caption>
             <thead className="border-b border-line text-graphite-soft">
@@ -43,7 +44,7 @@ export function InvoiceList() {
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       ) : null}
     </Panel>
   );

@@ -5,6 +5,7 @@ import { CodeBlock, CopyButton } from '../../../components/ui/code-block.tsx';
 import { Badge } from '../../../components/ui/data.tsx';
 import { Field, SelectField } from '../../../components/ui/field.tsx';
 import { Alert, EmptyState, ErrorState, LoadingState, PageHeader, Panel, Time } from '../../../components/ui/feedback.tsx';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 import { ApiProblem } from '../../../lib/api-client.ts';
 import { maskedKey, useOrganizationKeys } from '../../../lib/organization-keys.ts';
 import { useSession } from '../../../lib/session.ts';
@@ -158,7 +159,7 @@ function KeyList({ mayManage, onRotated }: { mayManage: (k: ApiKeyView) => boole
         <EmptyState title="No active keys yet.">Create a server key above to call the API from your software, or an embed key for widgets.</EmptyState>
       ) : null}
       {visible.length > 0 ? (
-        <div className="overflow-x-auto">
+        <TableScroll label="API keys">
           <table className="w-full min-w-[46rem] text-left text-sm">
             <caption className="sr-only">API keys</caption>
             <thead className="border-b border-line text-graphite-soft">
@@ -179,7 +180,7 @@ function KeyList({ mayManage, onRotated }: { mayManage: (k: ApiKeyView) => boole
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       ) : null}
     </Panel>
   );

@@ -2,6 +2,7 @@ import { Link } from 'react-router';
 import { CodeTabs } from '../../../components/ui/code-block.tsx';
 import { Num } from '../../../components/ui/data.tsx';
 import { EmptyState, ErrorState, LoadingState, PageHeader, Panel, Time } from '../../../components/ui/feedback.tsx';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 import { maskedKey, useChosenServerKey, useOrganizationKeys } from '../../../lib/organization-keys.ts';
 import { useSession } from '../../../lib/session.ts';
 import { buildSnippets } from '../../../lib/code-snippets.ts';
@@ -110,7 +111,7 @@ function RecentErrors() {
       ) : errors.data.length === 0 ? (
         <EmptyState title="No errors in the recent calls">Calls answered with a 4xx or 5xx status show here, newest first.</EmptyState>
       ) : (
-        <div className="overflow-x-auto">
+        <TableScroll label="Recent errors">
           <table className="w-full text-left text-sm">
             <thead>
               <tr className="border-b border-line">
@@ -135,7 +136,7 @@ function RecentErrors() {
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       )}
     </Panel>
   );

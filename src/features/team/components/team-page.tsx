@@ -4,6 +4,7 @@ import { can, CreateInvitationInputSchema, type Member, type Role } from '#share
 import { Button } from '../../../components/ui/button.tsx';
 import { Field, SelectField } from '../../../components/ui/field.tsx';
 import { Alert, EmptyState, ErrorState, LoadingState, PageHeader, Panel, Time } from '../../../components/ui/feedback.tsx';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 import { useSession } from '../../../lib/session.ts';
 import { useZodForm } from '../../../lib/use-zod-form.ts';
 import { useCreateInvitation } from '../api/create-invitation.ts';
@@ -57,7 +58,7 @@ function MembersPanel({ manage, myUserId }: { manage: boolean; myUserId: string 
       {members.isError ? <ErrorState error={members.error} onRetry={() => void members.refetch()} /> : null}
       {members.data && members.data.members.length === 0 ? <EmptyState title="No members yet." /> : null}
       {members.data && members.data.members.length > 0 ? (
-        <div className="overflow-x-auto">
+        <TableScroll label="Members of this organization">
           <table className="w-full min-w-[36rem] text-left text-sm">
             <caption className="sr-only">Members of this organization</caption>
             <thead className="border-b border-line text-graphite-soft">
@@ -75,7 +76,7 @@ function MembersPanel({ manage, myUserId }: { manage: boolean; myUserId: string 
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       ) : null}
     </Panel>
   );

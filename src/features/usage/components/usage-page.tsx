@@ -2,6 +2,7 @@ import { lazy, Suspense, useMemo, useState, type ReactNode } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { Badge, Num } from '../../../components/ui/data.tsx';
 import { EmptyState, ErrorState, LoadingState, PageHeader, Panel, Time } from '../../../components/ui/feedback.tsx';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 import { useOrganizationKeys } from '../../../lib/organization-keys.ts';
 import { useRequests, type RequestFilters } from '../api/get-requests.ts';
 import { useUsage } from '../api/get-usage.ts';
@@ -188,7 +189,7 @@ function RecentCalls({ endpoints }: { endpoints: string[] }) {
       {requests.isError ? <ErrorState error={requests.error} onRetry={() => void requests.refetch()} /> : null}
       {requests.data && items.length === 0 ? <EmptyState title="No calls match.">Calls are kept here for 30 days.</EmptyState> : null}
       {items.length > 0 ? (
-        <div className="overflow-x-auto">
+        <TableScroll label="Recent calls">
           <table className="w-full min-w-[40rem] text-left text-sm">
             <caption className="sr-only">Recent calls, newest first</caption>
             <thead className="border-b border-line text-graphite-soft">
@@ -222,7 +223,7 @@ function RecentCalls({ endpoints }: { endpoints: string[] }) {
               ))}
             </tbody>
           </table>
-        </div>
+        </TableScroll>
       ) : null}
       {requests.hasNextPage ? (
         <Button tone="secondary" className="mt-3" busy={requests.isFetchingNextPage} onClick={() => void requests.fetchNextPage()}>
