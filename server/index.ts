@@ -17,7 +17,7 @@ export interface RunningServer {
 
 export async function startServer(env: Env = getEnv()): Promise<RunningServer> {
   const logger = createLogger(env.LOG_LEVEL);
-  const { db, pool } = createDb(env.DATABASE_URL);
+  const { db, pool } = createDb(env.DATABASE_URL, { onIdleError: (err) => logger.warn({ err }, 'an idle database connection was cut; it is replaced on next use') });
   const app = createApp({ env, db, pool, logger });
   const server = app.listen(env.PORT, env.HOST);
   await new Promise<void>((resolve, reject) => {

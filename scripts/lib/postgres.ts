@@ -56,15 +56,18 @@ function installPostgres(log: Log) {
   sh('apt-get install -y -qq postgresql >/dev/null');
 }
 
-/** The data folder: `.data/pg` in the checkout, unless the postgres user cannot reach it there. */
-function chooseDataDir(): string {
-  const preferred = join(repoRoot, '.data', 'pg');
+/**
+ * The data folder: `.data/<cluster>` in the checkout (`.data/pg` for the project's cluster), unless the
+ * postgres user cannot reach it there.
+ */
+function chooseDataDir(cluster = 'pg'): string {
+  const preferred = join(repoRoot, '.data', cluster);
   mkdirSync(preferred, { recursive: true });
   if (!isRoot) return preferred;
   run('chown', ['postgres:postgres', preferred]);
   if (run('test', ['-w', preferred], { asPostgres: true, allowFail: true }).status === 0) return preferred;
   // Every parent must be traversable by postgres; a checkout under a private home is not.
-  const fallback = join('/var/tmp', `ohmstead-pg-${createHash('sha1').update(repoRoot).digest('hex').slice(0, 10)}`);
+  const fallback = join('/var/tmp', `ohmstead-${cluster}-${createHash('sha1').update(repoRoot).digest('hex').slice(0, 10)}`);
   mkdirSync(fallback, { recursive: true });
   run('chown', ['postgres:postgres', fallback]);
   return fallback;
@@ -74,7 +77,11 @@ async function sleep(ms: number) {
   await new Promise((r) => setTimeout(r, ms));
 }
 
-export async function ensurePostgres(options: { port: number; log?: Log }): Promise<PostgresHandle> {
+/**
+ * `cluster` names a separate cluster of its own (its own data folder, on its own port), for work that must
+ * not disturb the project's shared one, such as restarting it (scripts/soak.ts). Default: the project's.
+ */
+export async function ensurePostgres(options: { port: number; log?: Log; cluster?: string }): Promise<PostgresHandle> {
   const log = options.log ?? (() => {});
   const external = process.env.DATABASE_URL;
   if (external) {
@@ -100,7 +107,7 @@ export async function ensurePostgres(options: { port: number; log?: Log }): Prom
   }
   const ready = () => run(join(bin!, 'pg_isready'), ['-q', '-h', '127.0.0.1', '-p', String(port)], { allowFail: true }).status === 0;
 
-  const dataDir = chooseDataDir();
+  const dataDir = chooseDataDir(options.cluster);
   if (!existsSync(join(dataDir, 'PG_VERSION'))) {
     log(`Creating a local PostgreSQL cluster in ${dataDir}…`);
     run(join(bin, 'initdb'), ['-D', dataDir, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--no-locale'], { asPostgres: true });
@@ -172,4 +179,25 @@ export async function dropDatabase(handle: PostgresHandle, database: string): Pr
   } finally {
     await admin.end();
   }
+}
+
+/**
+ * Restarts a cluster of this checkout (`pg_ctl restart -m fast`: open connections are cut, transactions in
+ * progress roll back, committed ones stay) and waits until it accepts connections again. Only for a cluster
+ * this project runs (never a server named by DATABASE_URL); meant for fault tests on a cluster of their own.
+ */
+export async function restartPostgres(options: { port: number; cluster?: string; log?: Log }): Promise<{ downMs: number }> {
+  if (process.env.DATABASE_URL) throw new Error('restartPostgres: DATABASE_URL names a server this project does not run; it is not restarted.');
+  const bin = findBinDir();
+  if (!bin) throw new Error('restartPostgres: PostgreSQL is not installed');
+  const dataDir = chooseDataDir(options.cluster);
+  const started = Date.now();
+  options.log?.(`Restarting PostgreSQL on 127.0.0.1:${options.port} (${dataDir})…`);
+  // With its log file, as at start: otherwise the new server would hold pg_ctl's output pipe open.
+  const logFile = join(dirname(dataDir), `postgres-${options.port}.log`);
+  run(join(bin, 'pg_ctl'), ['restart', '-D', dataDir, '-l', logFile, '-m', 'fast', '-w', '-t', '60', '-o', `-p ${options.port}`], { asPostgres: true });
+  const ready = () => run(join(bin, 'pg_isready'), ['-q', '-h', '127.0.0.1', '-p', String(options.port)], { allowFail: true }).status === 0;
+  for (let i = 0; i < 300 && !ready(); i += 1) await sleep(100);
+  if (!ready()) throw new Error(`PostgreSQL did not come back on port ${options.port}`);
+  return { downMs: Date.now() - started };
 }

@@ -47,6 +47,21 @@ const bodyParserProblems: Record<string, ProblemSlug> = {
   'stream.encoding.set': 'internal-error',
 };
 
+/**
+ * Errors that mean the database cannot be reached right now (refused or cut connections, a server shutting
+ * down or starting up: SQLSTATE classes 08 and 57P), looked for along the `cause` chain (Drizzle wraps the
+ * driver's error). They are a 503 with Retry-After, not a 500: nothing is wrong with the request, and a
+ * load balancer or client should simply try again.
+ */
+const UNAVAILABLE_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'EPIPE', '57P01', '57P02', '57P03', '08000', '08001', '08003', '08004', '08006']);
+export function isDatabaseUnavailable(err: unknown): boolean {
+  for (let e = err as { code?: unknown; message?: unknown; cause?: unknown } | undefined, depth = 0; e && depth < 5; e = e.cause as typeof e, depth += 1) {
+    if (typeof e.code === 'string' && UNAVAILABLE_CODES.has(e.code)) return true;
+    if (typeof e.message === 'string' && /^Connection terminated|timeout exceeded when trying to connect/.test(e.message)) return true;
+  }
+  return false;
+}
+
 /** The one error handler, mounted last: every error becomes RFC 9457 problem details. */
 export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) => {
   if (res.headersSent) {
@@ -89,6 +104,12 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, next) 
   // A body that claims a content coding it does not have (zlib refuses it) is the client's error.
   if (typeof (err as { code?: unknown })?.code === 'string' && /^Z_/.test((err as { code: string }).code)) {
     send(res, 400, problemBody('malformed-request', `The body could not be decoded with its Content-Encoding: ${(err as Error).message}.`, refs));
+    return;
+  }
+  if (isDatabaseUnavailable(err)) {
+    req.log?.warn({ err }, 'database unavailable');
+    res.setHeader('Retry-After', '2');
+    send(res, 503, problemBody('service-unavailable', 'The service cannot reach its database at the moment. Retry in a few seconds.', refs));
     return;
   }
   req.log?.error({ err }, 'unhandled error');
