@@ -20,7 +20,7 @@ import { mkdirSync, openSync } from 'node:fs';
 import http from 'node:http';
 import { join } from 'node:path';
 import pg from 'pg';
-import { dropDatabase, ensureDatabase, ensurePostgres, repoRoot } from './lib/postgres.ts';
+import { dropDatabase, ensureDatabase, ensurePostgres, repoRoot, stopPostgres } from './lib/postgres.ts';
 import { runMigrations } from '../server/db/migrate.ts';
 import { createDb } from '../server/db/client.ts';
 import { seedDemo } from '../server/db/seed.ts';
@@ -246,5 +246,6 @@ console.log(`  every 2xx counted (counted ≥ received): ${everyAnswerCounted ? 
 console.log(`  counted − received ≤ in flight at the kill (${inFlightAtKill}): ${withinKill ? 'yes' : 'no'}${withinKill ? '' : ` (≤ kill + restart in-flight bound ${inFlightAtKill + inFlightAtRestart}: ${withinBoth ? 'yes' : 'NO'})`}`);
 
 await dropDatabase(pgHandle, dbName);
-if (pgHandle.startedHere) await pgHandle.stop();
+// The soak's cluster is its own: stopped whoever started it.
+stopPostgres({ cluster: CLUSTER });
 process.exit(everyAnswerCounted && withinBoth ? 0 : 1);

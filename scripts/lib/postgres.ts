@@ -201,3 +201,11 @@ export async function restartPostgres(options: { port: number; cluster?: string;
   if (!ready()) throw new Error(`PostgreSQL did not come back on port ${options.port}`);
   return { downMs: Date.now() - started };
 }
+
+/** Stops a cluster of this checkout if it runs (for a cluster of its own, such as the soak's). */
+export function stopPostgres(options: { cluster?: string }): void {
+  if (process.env.DATABASE_URL) return;
+  const bin = findBinDir();
+  if (!bin) return;
+  run(join(bin, 'pg_ctl'), ['stop', '-D', chooseDataDir(options.cluster), '-m', 'fast', '-w'], { asPostgres: true, allowFail: true });
+}
