@@ -4,9 +4,10 @@
  * autocannon in its own process. Three alternating 10 s rounds each; medians and their ratios are printed,
  * and the calls counted in the database are checked against the 2xx answers autocannon received.
  *
- * Options (environment): BENCH_DURATION_S (10), BENCH_ROUNDS (3), BENCH_CONNECTIONS (50), BENCH_PORT (3901).
+ * Options (environment): BENCH_DURATION_S (10), BENCH_ROUNDS (3), BENCH_CONNECTIONS (50), BENCH_PORT (a free port).
  */
 import { spawn, spawnSync } from 'node:child_process';
+import { createServer } from 'node:net';
 import { join } from 'node:path';
 import pg from 'pg';
 import { dropDatabase, ensureDatabase, ensurePostgres, repoRoot } from './lib/postgres.ts';
@@ -21,7 +22,14 @@ import { parseEnv } from '../server/env.ts';
 const durationS = Number(process.env.BENCH_DURATION_S ?? 10);
 const rounds = Number(process.env.BENCH_ROUNDS ?? 3);
 const connections = Number(process.env.BENCH_CONNECTIONS ?? 50);
-const port = Number(process.env.BENCH_PORT ?? 3901);
+const port =
+  Number(process.env.BENCH_PORT ?? 0) ||
+  (await new Promise<number>((resolve) => {
+    const probe = createServer().listen(0, '127.0.0.1', () => {
+      const { port: free } = probe.address() as { port: number };
+      probe.close(() => resolve(free));
+    });
+  }));
 const base = `http://127.0.0.1:${port}`;
 
 const pgHandle = await ensurePostgres({ port: Number(process.env.OHMSTEAD_PG_PORT ?? 54329), log: console.log });
@@ -47,7 +55,7 @@ for (let i = 0; i < 150 && !up && server.exitCode === null; i += 1) {
   up = await fetch(`${base}/healthz`).then((r) => r.ok).catch(() => false);
   if (!up) await new Promise((r) => setTimeout(r, 100));
 }
-if (!up) {
+if (!up || server.exitCode !== null) {
   server.kill('SIGKILL');
   throw new Error('The server did not come up for the benchmark (see its output above).');
 }
