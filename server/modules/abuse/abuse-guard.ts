@@ -110,24 +110,30 @@ export function createAbuseGuard(deps: { limits: AbuseLimits; resolver: KeyResol
       next();
       return;
     }
-    const address = addressOf(req);
-    if (!v1) {
-      const state = consoleRequests.hit(address);
-      announce(res, 'console', state);
-      if (state.exceeded) throw refuse('console', state, 'Too many console requests from your network address in this minute.');
-    }
-    if (addressFailures.isExhausted(address) && !(v1 && holdsKnownGoodKey(req))) {
-      throw refuse('auth-failures', addressFailures.peek(address), 'Too many unauthenticated or refused requests from your network address in this minute.');
+    // The hot path: a /v1 call with a key this instance holds as valid is exempt from the address limit,
+    // so its address is worked out only if the call fails.
+    const knownGood = v1 && holdsKnownGoodKey(req);
+    let address: string | undefined;
+    if (!knownGood) {
+      address = addressOf(req);
+      if (!v1) {
+        const state = consoleRequests.hit(address);
+        announce(res, 'console', state);
+        if (state.exceeded) throw refuse('console', state, 'Too many console requests from your network address in this minute.');
+      }
+      if (addressFailures.isExhausted(address)) {
+        throw refuse('auth-failures', addressFailures.peek(address), 'Too many unauthenticated or refused requests from your network address in this minute.');
+      }
     }
     res.once('finish', () => {
       const status = res.statusCode;
       if (status < 400 || status >= 500 || status === 429) return;
       if (!v1) {
-        if (status === 401) addressFailures.hit(address);
+        if (status === 401) addressFailures.hit(address ?? addressOf(req));
         return;
       }
       const key = res.locals.apiKey;
-      if (!key) addressFailures.hit(address);
+      if (!key) addressFailures.hit(address ?? addressOf(req));
       else if (req.method === 'POST') keyFailures.hit(key.id);
     });
     next();
