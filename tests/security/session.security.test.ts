@@ -110,6 +110,20 @@ describe('ending sessions', () => {
   });
 });
 
+describe('e-mailed links', () => {
+  it('when a reset is asked for with a forged Host header, then the e-mailed link still points at the console, with the token in the fragment', async () => {
+    const user = await createUser(kit.db, 'host-header');
+    const res = await request(kit.app).post('/console-api/auth/forgot-password').set('Host', 'evil.example').set(CSRF_HEADER, CSRF_HEADER_VALUE).send({ email: user.email });
+    expect(res.status).toBe(202);
+    const mail = await kit.catcher.waitForMessage((m) => m.to.includes(user.email));
+    const link = new URL(mail.links.find((l) => l.includes('/reset-password'))!);
+    expect(link.host).not.toBe('evil.example');
+    expect(link.host).toBe(`${kit.env.HOST}:${kit.env.PORT}`);
+    expect(link.search).toBe('');
+    expect(link.hash).toMatch(/^#token=[A-Za-z0-9_-]{43}$/);
+  });
+});
+
 describe('sign-in throttling', () => {
   it('when one account gets more failed sign-ins than allowed, then the next attempt is 429 with Retry-After, even with the right password', async () => {
     const user = await createUser(kit.db, 'throttle-account');
