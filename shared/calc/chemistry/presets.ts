@@ -41,6 +41,19 @@ export interface ChemistryPreset {
 
 const curve = (pairs: Array<[number, number]>): OcvPoint[] => pairs.map(([socPct, cellVoltageV]) => ({ socPct, cellVoltageV }));
 
+/**
+ * BCI rested OCV vs state of charge for a 12 V lead-acid battery at 26.7 °C (80 °F), divided by 6 cells:
+ * 100 % 12.65 V, 75 % 12.45 V, 50 % 12.24 V, 25 % 12.06 V, 0 % 11.89 V (published SoC-measurement document).
+ * AGM and flooded batteries share it.
+ */
+const leadAcidOcvCurve = curve([
+  [0, 11.89 / 6],
+  [25, 12.06 / 6],
+  [50, 12.24 / 6],
+  [75, 12.45 / 6],
+  [100, 12.65 / 6],
+]);
+
 export const chemistries: Record<ChemistryId, ChemistryPreset> = {
   lfp: {
     id: 'lfp',
@@ -142,15 +155,7 @@ export const chemistries: Record<ChemistryId, ChemistryPreset> = {
     coulombicEfficiency: 0.9, // from memory: lead-acid charge efficiency 85–95 %
     typicalCycleLife: 500, // from memory, at 50 % DoD
     terminationCurrentC: 0.02, // common practice (no published source): absorption ends near 2 % of C
-    // BCI rested OCV vs state of charge for a 12 V battery at 26.7 °C (80 °F), divided by 6 cells:
-    // 100 % 12.65 V, 75 % 12.45 V, 50 % 12.24 V, 25 % 12.06 V, 0 % 11.89 V (published SoC-measurement document).
-    ocvCurve: curve([
-      [0, 11.89 / 6],
-      [25, 12.06 / 6],
-      [50, 12.24 / 6],
-      [75, 12.45 / 6],
-      [100, 12.65 / 6],
-    ]),
+    ocvCurve: leadAcidOcvCurve,
     sources: [
       'Lead-acid practice: 2.0 V/cell nominal, about 2.40 V/cell absorption, 1.75 V/cell end of discharge',
       'BCI open-circuit voltage vs state-of-charge table for 12 V lead-acid at 80 °F (26.7 °C)',
@@ -167,13 +172,7 @@ export const chemistries: Record<ChemistryId, ChemistryPreset> = {
     coulombicEfficiency: 0.85, // from memory
     typicalCycleLife: 400, // from memory, at 50 % DoD
     terminationCurrentC: 0.02, // common practice (no published source)
-    ocvCurve: curve([
-      [0, 11.89 / 6],
-      [25, 12.06 / 6],
-      [50, 12.24 / 6],
-      [75, 12.45 / 6],
-      [100, 12.65 / 6],
-    ]),
+    ocvCurve: leadAcidOcvCurve,
     sources: [
       'Lead-acid practice: 2.0 V/cell nominal, about 2.40 V/cell absorption, 1.75 V/cell end of discharge',
       'BCI open-circuit voltage vs state-of-charge table for 12 V lead-acid at 80 °F (26.7 °C)',
