@@ -20,7 +20,7 @@ import { createTestKey } from '../setup/fixtures.ts';
 import { collectSecrets } from '../security/exposure.ts';
 import { checkAnswer, listen, Tally, type Sent } from './fuzz-kit.ts';
 import { changedTables, createIsolatedDatabase, snapshot, type Snapshot } from './isolated-database.ts';
-import { bodyFor, listOperations, pathFor, queryFor, wireBody, type OpenApiDocument, type Operation, type WireBody } from './openapi-arbitraries.ts';
+import { bodyFor, listOperations, multipartBody, pathFor, queryFor, wireBody, type OpenApiDocument, type Operation, type WireBody } from './openapi-arbitraries.ts';
 
 const SEED = 20261211;
 const RUNS = { withBody: 30, withoutBody: 10 };
@@ -75,7 +75,9 @@ async function freshWorld() {
 
 function caseFor(op: Operation, known: Record<string, string>): fc.Arbitrary<Sent> {
   const hasBody = op.bodyTypes.length > 0;
-  const body: fc.Arbitrary<WireBody | undefined> = hasBody
+  const body: fc.Arbitrary<WireBody | undefined> = op.bodyTypes.includes('multipart/form-data')
+    ? fc.oneof({ weight: 4, arbitrary: multipartBody() }, { weight: 1, arbitrary: wireBody(fc.jsonValue({ maxDepth: 2 })) })
+    : hasBody
     ? wireBody(bodyFor(doc, op))
     : fc.oneof({ weight: 3, arbitrary: fc.constant(undefined) }, { weight: 1, arbitrary: wireBody(fc.jsonValue({ maxDepth: 2 })) });
   return fc

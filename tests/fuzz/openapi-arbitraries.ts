@@ -365,6 +365,30 @@ export function wireBody(value: fc.Arbitrary<unknown>): fc.Arbitrary<WireBody> {
   );
 }
 
+/** Multipart uploads (a CSV file field), well-formed or not: the shapes a file-import route must survive. */
+export function multipartBody(): fc.Arbitrary<WireBody> {
+  const cell = fc.oneof(fc.constantFrom(...nastyStrings, '=cmd|/c calc!A1', '+1+1', '@SUM(A1)', '"quoted, cell"', '""'), fc.string({ maxLength: 12 }), fc.double().map(String));
+  const csv = fc.oneof(
+    fc.array(fc.array(cell, { minLength: 1, maxLength: 6 }), { minLength: 0, maxLength: 8 }).map((rows) => rows.map((r) => r.join(',')).join('\n')),
+    fc.fullUnicodeString({ maxLength: 200 }),
+    fc.constant('\ufeffsku,name\r\n'),
+  );
+  const boundary = 'fuzzboundary';
+  return fc
+    .record({
+      field: fc.constantFrom('file', 'file', 'upload', ''),
+      filename: fc.constantFrom('items.csv', '../../etc/passwd.csv', 'items.exe', 'ünïcødé.csv', ''),
+      type: fc.constantFrom('text/csv', 'text/csv', 'application/octet-stream', 'image/png'),
+      content: csv,
+      broken: fc.boolean(),
+    })
+    .map(({ field, filename, type, content, broken }) => ({
+      contentType: `multipart/form-data; boundary=${boundary}`,
+      text: `--${boundary}\r\nContent-Disposition: form-data; name="${field}"; filename="${filename}"\r\nContent-Type: ${type}\r\n\r\n${content}\r\n${broken ? '' : `--${boundary}--\r\n`}`,
+      label: `multipart ${type}${broken ? ' (unterminated)' : ''}`,
+    }));
+}
+
 /** Bodies for an operation: mutations of its documented examples, schema-shaped values and their mutations, and plain adversarial values. */
 export function bodyFor(doc: OpenApiDocument, op: Operation): fc.Arbitrary<unknown> {
   const shaped = op.bodySchema ? valueOf(doc, op.bodySchema) : fc.constant({});
