@@ -16,6 +16,7 @@ import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { plans } from '#shared/plans.ts';
 import { startBillingFake, type BillingFake } from '../../server/modules/billing/billing.test-kit.ts';
+import { collectSecrets, findLeaks } from '../security/exposure.ts';
 import { startE2E, type E2E } from './harness.ts';
 
 async function freePort(): Promise<number> {
@@ -34,15 +35,38 @@ const owner = { name: 'Wren Calloway', email: `wren-${suffix}@larkspur.example`,
 const colleague = { name: 'Ode Marchetti', email: `ode-${suffix}@larkspur.example`, password: 'silver ferns lean toward rain' };
 let ownerPage: Page;
 let serverKey = '';
+/** Every JSON answer the browser received from the server during the journeys (scanned for secrets at the end). */
+const received: Array<{ what: string; text: string; newKey: boolean }> = [];
+async function newWatchedPage(): Promise<Page> {
+  const page = await e2e.newPage();
+  page.on('response', (response) => {
+    const type = response.headers()['content-type'] ?? '';
+    if (!response.url().startsWith(e2e.baseUrl) || !/json/.test(type)) return;
+    const url = new URL(response.url());
+    const newKey = response.request().method() === 'POST' && /^\/console-api\/keys(\/[^/]+\/rotate)?$/.test(url.pathname) && response.status() === 201;
+    void response.text().then(
+      (text) => received.push({ what: `${response.request().method()} ${url.pathname} ${response.status()}`, text, newKey }),
+      () => {},
+    );
+  });
+  return page;
+}
 
 beforeAll(async () => {
   // The server's port is chosen first so the e-mailed links and the fake's webhooks point at it.
   const port = await freePort();
   billing = await startBillingFake({ webhookUrl: `http://127.0.0.1:${port}/v1/webhooks/stripe` });
   e2e = await startE2E({ env: { PORT: String(port), ...billing.env } });
-  ownerPage = await e2e.newPage();
+  ownerPage = await newWatchedPage();
 }, 180_000);
 afterAll(async () => {
+  if (e2e && received.length > 0) {
+    // Excessive data exposure: no password, key or token hash and no stored secret in anything the browser got.
+    const secrets = await collectSecrets(e2e.db, e2e.env);
+    const leaks = received.flatMap((r) => findLeaks(r.text, secrets, { allowApiKeySecret: r.newKey }).map((l) => `${r.what}: ${l}`));
+    console.info(`[journeys] ${received.length} JSON answers received by the browser, scanned for secrets: ${leaks.length} found`);
+    expect(leaks).toEqual([]);
+  }
   await e2e?.close();
   await billing?.close();
 });
@@ -168,7 +192,7 @@ describe('a new customer', () => {
       await page.getByText(`Invitation sent to ${colleague.email}.`).waitFor();
     });
 
-    const viewer = await e2e.newPage();
+    const viewer = await newWatchedPage();
     await step(viewer, 'accept', async () => {
       await followMailedLink(viewer, colleague.email, '/invitations/accept');
       await viewer.getByText(new RegExp(`invited ${colleague.email.replace('.', '\\.')} to join ${owner.organization} as a viewer`)).waitFor();
