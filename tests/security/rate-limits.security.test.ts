@@ -15,6 +15,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { CSRF_HEADER, CSRF_HEADER_VALUE } from '#shared/schemas/accounts.ts';
 import { createTestKey, setLimits } from '../setup/fixtures.ts';
+import { sessionCookie } from '../../server/modules/console/console.test-kit.ts';
 import { consoleOperations, fillPath, operations, organizationWithEveryRole, startSecurityKit, withDocumentedBody, type SecurityKit } from './security-kit.ts';
 import { usageCounters } from '../../server/db/schema/index.ts';
 import { eq } from 'drizzle-orm';
@@ -123,17 +124,35 @@ describe('every /v1 route with a key: refused calculations and unmetered reads p
   });
 });
 
-describe('every console route: requests and 401s per address', () => {
-  it.each(consoleOperations.map((op) => [`${op.method.toUpperCase()} ${op.path}`, op] as const))('when an address has used its console requests, then %s is refused with 429', async (_n, op) => {
+describe('every console route: requests per session (or per address without one), and 401s per address', () => {
+  it.each(consoleOperations.map((op) => [`${op.method.toUpperCase()} ${op.path}`, op] as const))('when a session has used its console requests, then %s is refused with 429', async (_n, op) => {
     await awayFromMinuteEdge();
     const address = freshAddress();
+    const cookie = await sessionCookie(kit.db, a.members.owner!.id, a.org.id);
     for (let i = 0; i < LIMIT; i += 1) {
-      const res = await request(kit.app).get('/console-api/session').set('X-Forwarded-For', address).set('Cookie', a.cookies.viewer);
+      const res = await request(kit.app).get('/console-api/session').set('X-Forwarded-For', address).set('Cookie', cookie);
       expect(res.status).toBe(200);
       expect(res.headers.ratelimit).toBe(`"console";r=${LIMIT - 1 - i};t=${String(res.headers.ratelimit).split('t=')[1]}`);
     }
     const url = fillPath(op.path, { userId: a.members.developer!.id, invitationId: a.invitation.id, keyId: a.serverKeyId });
-    expectRefused(await kit.scan(await withDocumentedBody(request(kit.app)[op.method](url).set('X-Forwarded-For', address).set('Cookie', a.cookies.owner).set(CSRF_HEADER, CSRF_HEADER_VALUE), op)), 'console');
+    expectRefused(await kit.scan(await withDocumentedBody(request(kit.app)[op.method](url).set('X-Forwarded-For', address).set('Cookie', cookie).set(CSRF_HEADER, CSRF_HEADER_VALUE), op)), 'console');
+  });
+
+  it('when one session has used its budget, then another session at the same address is still served', async () => {
+    await awayFromMinuteEdge();
+    const address = freshAddress();
+    const busy = await sessionCookie(kit.db, a.members.owner!.id, a.org.id);
+    for (let i = 0; i <= LIMIT; i += 1) await request(kit.app).get('/console-api/session').set('X-Forwarded-For', address).set('Cookie', busy);
+    expect((await request(kit.app).get('/console-api/session').set('X-Forwarded-For', address).set('Cookie', busy)).status).toBe(429);
+    expect((await request(kit.app).get('/console-api/session').set('X-Forwarded-For', address).set('Cookie', a.cookies.viewer)).status).toBe(200);
+  });
+
+  it('when requests without a session exceed the budget of their address, then they are refused with 429', async () => {
+    await awayFromMinuteEdge();
+    const address = freshAddress();
+    const ask = () => request(kit.app).post('/console-api/auth/forgot-password').set('X-Forwarded-For', address).set(CSRF_HEADER, CSRF_HEADER_VALUE).send({ email: 'nobody@tests.example' });
+    for (let i = 0; i < LIMIT; i += 1) expect((await ask()).status).toBe(202);
+    expectRefused(await ask(), 'console');
   });
 
   it('when an address sends bad session cookies, then after the limit its console requests are refused', async () => {

@@ -10,7 +10,8 @@
  *                                             console 401s (bad sessions, failed sign-ins)
  *   key-failures    API key                   4xx answers to its calculation calls              120
  *   key-reads       API key                   its unmetered calls: reference data, /v1/usage    300
- *   console         client address            every /console-api request                        600
+ *   console         session, or client        every /console-api request                        600
+ *                   address without one
  *
  * Over a limit, the request is answered 429 (problem `rate-limited`, `Retry-After`, `RateLimit` and
  * `RateLimit-Policy` in the draft-8 form the metering uses, `violated-policies`) before any key, session,
@@ -52,6 +53,8 @@ export function abuseLimits(env: Env): AbuseLimits {
 type PolicyName = 'auth-failures' | 'key-failures' | 'key-reads' | 'console';
 
 const BEARER = /^Bearer[ ]+(\S+)\s*$/i;
+/** The console's session cookie, under either of its names (session.ts: `__Host-` prefixed when Secure). */
+const SESSION_COOKIE = /(?:^|;\s*)(?:__Host-)?ohs_session=([^;\s]+)/;
 
 /** Adds one policy to the RateLimit / RateLimit-Policy lists of a response (draft-ietf-httpapi-ratelimit-headers, draft-8 form). */
 function announce(res: Response, name: PolicyName, state: WindowState): void {
@@ -117,9 +120,12 @@ export function createAbuseGuard(deps: { limits: AbuseLimits; resolver: KeyResol
     if (!knownGood) {
       address = addressOf(req);
       if (!v1) {
-        const state = consoleRequests.hit(address);
+        // Per session when the request brings one (colleagues behind one office address do not share a
+        // budget), per address otherwise. A made-up cookie is a 401, which the auth-failures limit counts.
+        const session = SESSION_COOKIE.exec(req.headers.cookie ?? '')?.[1];
+        const state = consoleRequests.hit(session ? `session:${session}` : address);
         announce(res, 'console', state);
-        if (state.exceeded) throw refuse('console', state, 'Too many console requests from your network address in this minute.');
+        if (state.exceeded) throw refuse('console', state, `Too many console requests from ${session ? 'this session' : 'your network address'} in this minute.`);
       }
       if (addressFailures.isExhausted(address)) {
         throw refuse('auth-failures', addressFailures.peek(address), 'Too many unauthenticated or refused requests from your network address in this minute.');
