@@ -42,7 +42,7 @@ export class MeterBatcher {
   private scheduled = false;
   private idle: Array<() => void> = [];
   /** Batches written and calls in them, for diagnostics and benchmarks. */
-  readonly stats = { batches: 0, calls: 0, largestBatch: 0 };
+  readonly stats = { batches: 0, calls: 0, largestBatch: 0, flushMs: 0 };
 
   constructor(
     private readonly pool: pg.Pool,
@@ -86,6 +86,7 @@ export class MeterBatcher {
         ? { idem: item.idempotency.key, hash: item.idempotency.requestHash, status: item.idempotency.status, body: item.idempotency.body }
         : {}),
     }));
+    const started = performance.now();
     try {
       const at = this.options.at?.() ?? null;
       const { rows } = await this.pool.query<{
@@ -97,6 +98,7 @@ export class MeterBatcher {
         window_start: Date;
       }>('select i, outcome, month_calls, window_calls, month_start::text as month_start, window_start from meter_batch($1::jsonb, $2::timestamptz)', [JSON.stringify(items), at]);
       this.stats.batches += 1;
+      this.stats.flushMs += performance.now() - started;
       this.stats.calls += batch.length;
       this.stats.largestBatch = Math.max(this.stats.largestBatch, batch.length);
       for (const row of rows) {
