@@ -8,6 +8,7 @@ import { useDeleteItem } from '../api/save-item.ts';
 import { CsvImport } from './csv-import.tsx';
 import { ItemForm } from './item-form.tsx';
 import { MatrixPanel } from './matrix-panel.tsx';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 
 const EDITORS = ['owner', 'admin', 'developer'];
 
@@ -58,7 +59,7 @@ function ItemsPanel({ kind, items, canEdit }: { kind: CatalogKind; items: Array<
         {remove.error ? <Alert tone="danger">{remove.error.message}</Alert> : null}
         {items.length === 0 ? <EmptyState title={`No ${title.toLowerCase()} yet.`}>Add them by form or import a CSV file.</EmptyState> : null}
         {items.length > 0 ? (
-          <div className="overflow-x-auto">
+          <TableScroll label={`${title}: table`}>
             <table className="w-full min-w-[36rem] text-left text-sm">
               <caption className="sr-only">{title}</caption>
               <thead className="border-b border-line text-graphite-soft">
@@ -89,7 +90,7 @@ function ItemsPanel({ kind, items, canEdit }: { kind: CatalogKind; items: Array<
                 ))}
               </tbody>
             </table>
-          </div>
+          </TableScroll>
         ) : null}
         {editing ? (
           <div className="rounded-lg border border-line bg-paper p-4">

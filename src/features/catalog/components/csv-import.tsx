@@ -4,6 +4,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { Alert } from '../../../components/ui/feedback.tsx';
 import { catalogPaths } from '../api/catalog-paths.ts';
 import { rowErrorsOf, useImportCsv } from '../api/import-csv.ts';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 
 /** Uploads a CSV file of one kind; a refused file lists each problem by row and column, and nothing changes. */
 export function CsvImport({ kind, canEdit }: { kind: CatalogKind; canEdit: boolean }) {
@@ -66,7 +67,7 @@ export function CsvImport({ kind, canEdit }: { kind: CatalogKind; canEdit: boole
         <Alert tone="danger" title="Nothing was imported">
           <p>{upload.error.message}</p>
           {rowErrors.length ? (
-            <div className="mt-2 overflow-x-auto">
+            <TableScroll className="mt-2" label="Problems in the file">
               <table className="text-left text-sm">
                 <caption className="sr-only">Problems in the file</caption>
                 <thead>
@@ -88,7 +89,7 @@ export function CsvImport({ kind, canEdit }: { kind: CatalogKind; canEdit: boole
                   ))}
                 </tbody>
               </table>
-            </div>
+            </TableScroll>
           ) : null}
         </Alert>
       ) : null}

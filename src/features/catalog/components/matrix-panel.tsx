@@ -5,6 +5,7 @@ import { SelectField } from '../../../components/ui/field.tsx';
 import { EmptyState, ErrorState, LoadingState } from '../../../components/ui/feedback.tsx';
 import { useMatrix } from '../api/get-matrix.ts';
 import { matrixCsv, matrixRows, type MatrixFilter } from './matrix-view.ts';
+import { TableScroll } from '../../../components/ui/table-scroll.tsx';
 
 const verdictStyle = { compatible: 'bg-ok text-white', limited: 'bg-warn text-white', incompatible: 'bg-danger text-white' } as const;
 const fmt = (n: number | null, digits = 0) => (n === null ? '—' : n.toLocaleString(undefined, { maximumFractionDigits: digits }));
@@ -55,7 +56,7 @@ function MatrixTable({ data, cautions }: { data: CompatibilityMatrixData; cautio
           {rows.length} of {data.pairs.length} pairs shown
         </span>
       </div>
-      <div className="overflow-x-auto">
+      <TableScroll label="Compatibility matrix">
         <table className="w-full min-w-[44rem] text-left text-sm" aria-describedby={statusId}>
           <caption className="sr-only">Compatibility of each host unit with each pack</caption>
           <thead className="border-b border-line text-graphite-soft">
@@ -85,7 +86,7 @@ function MatrixTable({ data, cautions }: { data: CompatibilityMatrixData; cautio
             ))}
           </tbody>
         </table>
-      </div>
+      </TableScroll>
       <details className="text-sm text-graphite-soft">
         <summary className="cursor-pointer">Safety cautions that come with these results</summary>
         <ul className="mt-2 list-disc pl-5">{cautions.map((c) => <li key={c}>{c}</li>)}</ul>
