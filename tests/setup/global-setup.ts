@@ -4,6 +4,7 @@
  */
 import { randomBytes } from 'node:crypto';
 import type { TestProject } from 'vitest/node';
+import { ensureChromium } from '../../scripts/lib/chromium.ts';
 import { dropDatabase, ensureDatabase, ensurePostgres } from '../../scripts/lib/postgres.ts';
 import { runMigrations } from '../../server/db/migrate.ts';
 
@@ -14,6 +15,9 @@ declare module 'vitest' {
 }
 
 export default async function setup(project: TestProject) {
+  // Browser test files start in parallel: install Debian's Chromium (when missing) once, here, so two apt
+  // runs never race for the package lock.
+  ensureChromium((line) => console.log(`[test browser] ${line}`));
   const port = Number(process.env.OHMSTEAD_PG_PORT ?? 54329);
   const pg = await ensurePostgres({ port, log: (line) => console.log(`[test db] ${line}`) });
   const name = `ohmstead_test_${process.pid}_${randomBytes(3).toString('hex')}`;
