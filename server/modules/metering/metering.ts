@@ -89,7 +89,9 @@ function meterCalls(db: Db, batcher: MeterBatcher, hooks: MeteringHooks): Reques
         return;
       }
       hooks.onCounted?.(key.organizationId, result.monthCalls, key.monthlyQuotaCalls, result.monthStart);
-      res.set(headers).status(200).json(body);
+      res.setHeader('RateLimit-Policy', headers['RateLimit-Policy']!);
+      res.setHeader('RateLimit', headers.RateLimit!);
+      res.status(200).json(body);
     };
     next();
   };

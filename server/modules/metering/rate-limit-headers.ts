@@ -18,15 +18,29 @@ export function nextMonthStart(monthStart: Date): Date {
   return new Date(Date.UTC(monthStart.getUTCFullYear(), monthStart.getUTCMonth() + 1, 1));
 }
 
+const policyCache = new Map<string, string>();
+
+/** The RateLimit-Policy value: the same for every call of an organization in a month, so built once. */
+function policyHeader(monthlyQuotaCalls: number, ratePerMinuteCalls: number, monthStart: Date, monthEnd: Date): string {
+  const id = `${monthlyQuotaCalls}:${ratePerMinuteCalls}:${monthStart.getTime()}`;
+  let value = policyCache.get(id);
+  if (value === undefined) {
+    const monthWindowS = Math.round((monthEnd.getTime() - monthStart.getTime()) / 1000);
+    value = `"monthly";q=${monthlyQuotaCalls};w=${monthWindowS}, "minute";q=${ratePerMinuteCalls};w=60`;
+    if (policyCache.size > 10_000) policyCache.clear();
+    policyCache.set(id, value);
+  }
+  return value;
+}
+
 export function rateLimitHeaders(s: LimitState): Record<string, string> {
   const monthEnd = nextMonthStart(s.monthStart);
-  const monthWindowS = Math.round((monthEnd.getTime() - s.monthStart.getTime()) / 1000);
   const monthResetS = Math.max(0, Math.ceil((monthEnd.getTime() - s.now.getTime()) / 1000));
   const minuteResetS = Math.max(0, Math.ceil((s.windowStart.getTime() + 60_000 - s.now.getTime()) / 1000));
   const monthRemaining = Math.max(0, s.monthlyQuotaCalls - s.monthCalls);
   const minuteRemaining = Math.max(0, s.ratePerMinuteCalls - s.windowCalls);
   return {
-    'RateLimit-Policy': `"monthly";q=${s.monthlyQuotaCalls};w=${monthWindowS}, "minute";q=${s.ratePerMinuteCalls};w=60`,
+    'RateLimit-Policy': policyHeader(s.monthlyQuotaCalls, s.ratePerMinuteCalls, s.monthStart, monthEnd),
     RateLimit: `"monthly";r=${monthRemaining};t=${monthResetS}, "minute";r=${minuteRemaining};t=${minuteResetS}`,
   };
 }

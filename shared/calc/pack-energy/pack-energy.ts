@@ -80,6 +80,17 @@ export function assertFiniteNumbers(value: unknown, field: string): void {
   }
 }
 
+const presetBasisCache = new Map<string, string>();
+/** "Chemistry preset <id>: <sources>." — built once per chemistry (the presets are constants). */
+function presetBasis(chem: { id: string; sources: readonly string[] }): string {
+  let text = presetBasisCache.get(chem.id);
+  if (text === undefined) {
+    text = `Chemistry preset ${chem.id}: ${chem.sources.join('; ')}.`;
+    presetBasisCache.set(chem.id, text);
+  }
+  return text;
+}
+
 export function computePackEnergy(input: PackEnergyInput): CalcOutput<PackEnergyData> {
   const { pack, price, cycleLife } = input;
   const chem = chemistries[pack.chemistry];
@@ -132,7 +143,7 @@ export function computePackEnergy(input: PackEnergyInput): CalcOutput<PackEnergy
     cautions,
     basis: [
       'Energy = series cells × nominal cell voltage × rated Ah; usable = energy × depth of discharge (trade practice).',
-      `Chemistry preset ${chem.id}: ${chem.sources.join('; ')}.`,
+      presetBasis(chem),
       ...(lifetimeThroughputKWh !== undefined ? ['Lifetime throughput = usable kWh × rated cycles; capacity fade over the life is not modelled.'] : []),
     ],
   };
