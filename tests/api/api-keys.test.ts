@@ -114,6 +114,19 @@ describe('API key authentication', () => {
     expectProblem(res, 405, '/problems/method-not-allowed');
     expect(res.headers.allow).toBe('GET');
   });
+
+  it('when a documented path is asked OPTIONS without an Origin, then it answers 204 with Allow and counts nothing', async () => {
+    const res = await request(app).options('/v1/packs/energy/');
+    expect(res.status).toBe(204);
+    expect(res.headers.allow).toBe('POST');
+    expect(res.headers.ratelimit).toBeUndefined();
+  });
+
+  it('when a calculation path is called with a trailing slash, then it is the same operation (metered)', async () => {
+    const res = await request(app).post('/v1/packs/energy/').set('Authorization', `Bearer ${serverKey}`).send({ pack: { chemistry: 'lfp', seriesCells: 16, capacityAh: 100 } });
+    expect(res.status).toBe(200);
+    expect(res.headers.ratelimit).toMatch(/"monthly";r=\d+/);
+  });
 });
 
 describe('CORS for embed keys', () => {

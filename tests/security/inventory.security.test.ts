@@ -18,7 +18,6 @@ afterAll(() => t.close());
 const undocumentedByDesign = new Map<string, string>([
   ['get /problems/{slug}', 'the human page each problem `type` URI resolves to (RFC 9457)'],
   ['get /openapi.json', 'the OpenAPI document itself'],
-  ['post /v1/*path', 'the metering stage every documented /v1 POST passes through; unknown paths are refused before it'],
   ['get /widgets/{version}/{file}', 'the static widget bundle for third-party pages'],
   ['get /{*path}', "the console's pages (the built single-page app), when it is built"],
 ]);

@@ -1,14 +1,14 @@
 /**
  * The routes an Express application really serves, read from its router stacks (Express 5 / router 2:
  * each layer keeps its `rawPath`; a route layer has `route.path` and `route.methods`; a mounted router's
- * handle has its own `stack`). Used to check the served routes against the OpenAPI document.
+ * handle has its own `stack`; the v1 gateway's handle lists its operations as `routes`). Used to check the served routes against the OpenAPI document.
  */
 import type { Express } from 'express';
 
 interface LayerLike {
   rawPath?: string | RegExp | Array<string | RegExp>;
   route?: { path: string | string[]; methods: Record<string, boolean> };
-  handle?: { stack?: LayerLike[] };
+  handle?: { stack?: LayerLike[]; routes?: ServedRoute[] };
 }
 
 export interface ServedRoute {
@@ -30,9 +30,11 @@ export function servedRoutes(app: Express): ServedRoute[] {
             if (on && method !== '_all') out.push({ method, path: join(prefix, p).replace(/:(\w+)/g, '{$1}') });
           }
         }
-      } else if (layer.handle?.stack) {
+      } else if (layer.handle?.stack || layer.handle?.routes) {
         const raw = Array.isArray(layer.rawPath) ? layer.rawPath[0] : layer.rawPath;
-        walk(layer.handle.stack, typeof raw === 'string' && raw !== '/' ? join(prefix, raw) : prefix);
+        const at = typeof raw === 'string' && raw !== '/' ? join(prefix, raw) : prefix;
+        if (layer.handle.stack) walk(layer.handle.stack, at);
+        for (const r of layer.handle.routes ?? []) out.push({ method: r.method, path: join(at, r.path) });
       }
     }
   };

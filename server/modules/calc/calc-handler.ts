@@ -30,14 +30,13 @@ export function calcHandler<S extends z.ZodType, O>(
   compute: (input: z.output<S>) => CalcOutput<O>,
   readInput: (schema: S, req: Request) => z.output<S> = parseJsonBody,
 ): RequestHandler {
-  return async (req, res) => {
-    const input = readInput(schema, req);
-    await sendCalcResult(res, runCalc(compute, input));
-  };
+  // Not async: a synchronous failure (validation, CalcError) throws straight to the error handlers, and a
+  // counted answer is one promise.
+  return (req, res) => sendCalcResult(res, runCalc(compute, readInput(schema, req)));
 }
 
-/** Sends a calculation result: metered (counted, then answered with RateLimit headers) behind the v1 router. */
-export async function sendCalcResult(res: Response, body: unknown): Promise<void> {
+/** Sends a calculation result: metered (counted, then answered with RateLimit headers) behind the v1 gateway. */
+export function sendCalcResult(res: Response, body: unknown): Promise<void> {
   if (!res.locals.sendMetered) throw new Error('calculation handlers must be mounted behind the metering middleware');
-  await res.locals.sendMetered(body);
+  return res.locals.sendMetered(body);
 }

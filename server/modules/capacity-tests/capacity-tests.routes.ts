@@ -1,9 +1,10 @@
-import express, { Router, type Request } from 'express';
+import type { Request } from 'express';
 import { computeCapacityTest, parseCapacityLogCsv } from '#shared/calc/capacity-test/capacity-test.ts';
 import { CapacityTestCsvQuerySchema, CapacityTestInputSchema } from '#shared/schemas/capacity-test.ts';
 import { AppError } from '../../http/problem.ts';
 import { parseJsonBody, parseQuery, parseWith } from '../../http/validate.ts';
 import { calcHandler } from '../calc/calc-handler.ts';
+import { v1Post, type V1Route } from '../v1-route.ts';
 
 /** The largest CSV log accepted, bytes: about 200 000 rows of "tS,currentA,voltageV". */
 export const CSV_LIMIT_BYTES = 5_000_000;
@@ -33,13 +34,10 @@ export function readCapacityTestInput(schema: typeof CapacityTestInputSchema, re
   return parseJsonBody(schema, req);
 }
 
-/** POST /v1/capacity-tests/evaluate: JSON, or a text/csv log (parsed on this route only). */
-export function capacityTestsRouter() {
-  const router = Router();
-  router.post(
-    '/capacity-tests/evaluate',
-    express.text({ type: 'text/csv', limit: CSV_LIMIT_BYTES }),
-    calcHandler(CapacityTestInputSchema, computeCapacityTest, readCapacityTestInput),
-  );
-  return router;
+/**
+ * POST /v1/capacity-tests/evaluate: JSON, or a text/csv log (the v1 gateway reads text/csv bodies up to
+ * CSV_LIMIT_BYTES for every calculation; the other calculations answer such a body with 415).
+ */
+export function capacityTestsRoutes(): V1Route[] {
+  return [v1Post('/capacity-tests/evaluate', calcHandler(CapacityTestInputSchema, computeCapacityTest, readCapacityTestInput))];
 }

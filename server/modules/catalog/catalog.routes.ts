@@ -7,7 +7,7 @@
  *   CSRF layer refuses by design, so this one route is mounted ahead of it with the same defences itself
  *   (the custom header, Fetch Metadata / Origin) and the session context, then multer reads one file
  *   into memory within the size limit.
- * - Public API (`catalogApiRouter`, behind the v1 router's key checks): `GET /v1/catalog` (read-only;
+ * - Public API (`catalogApiRoutes`, behind the v1 gateway's key checks): `GET /v1/catalog` (read-only;
  *   embed keys may read it from their listed origins, for the widgets) and `POST /v1/compatibility/matrix`
  *   (metered like every calculation).
  */
@@ -27,6 +27,7 @@ import { sendCalcResult } from '../calc/calc-handler.ts';
 import { catalogToCsv, CSV_MAX_BYTES, decodeCsvText } from './catalog.csv.ts';
 import { createHost, createPack, getCatalog, importCatalogCsv, removeItem, replaceHost, replacePack } from './catalog.service.ts';
 import { computeMatrix, matrixInputs } from './matrix.service.ts';
+import { v1Get, v1Post, type V1Route } from '../v1-route.ts';
 
 export const CATALOG_READERS = ['owner', 'admin', 'developer', 'viewer'] as const;
 export const CATALOG_EDITORS = ['owner', 'admin', 'developer'] as const;
@@ -195,19 +196,19 @@ export function catalogUploadRouter(deps: { env: Env; db: Db }) {
 }
 
 /** `GET /v1/catalog` and `POST /v1/compatibility/matrix`, for the key's organization. */
-export function catalogApiRouter(deps: { db: Db }) {
+export function catalogApiRoutes(deps: { db: Db }): V1Route[] {
   const { db } = deps;
-  const router = Router();
-  router.get('/catalog', async (_req, res) => {
-    const catalog = await getCatalog(db, res.locals.apiKey!.organizationId);
-    // Per key (the Authorization header keeps shared caches out); a browser may reuse it for a minute.
-    res.setHeader('Cache-Control', 'private, max-age=60');
-    res.json({ data: catalog, checks: [], cautions: [], basis: ["The organization's own catalog, as listed in the Ohmstead console"] });
-  });
-  router.post('/compatibility/matrix', async (req, res) => {
-    const input = parseJsonBody(CompatibilityMatrixInputSchema, req);
-    const { hosts, packs } = await matrixInputs(db, res.locals.apiKey!.organizationId, input);
-    await sendCalcResult(res, computeMatrix(hosts, packs, input.defaultStateOfChargePct));
-  });
-  return router;
+  return [
+    v1Get('/catalog', async (_req, res) => {
+      const catalog = await getCatalog(db, res.locals.apiKey!.organizationId);
+      // Per key (the Authorization header keeps shared caches out); a browser may reuse it for a minute.
+      res.setHeader('Cache-Control', 'private, max-age=60');
+      res.json({ data: catalog, checks: [], cautions: [], basis: ["The organization's own catalog, as listed in the Ohmstead console"] });
+    }),
+    v1Post('/compatibility/matrix', async (req, res) => {
+      const input = parseJsonBody(CompatibilityMatrixInputSchema, req);
+      const { hosts, packs } = await matrixInputs(db, res.locals.apiKey!.organizationId, input);
+      await sendCalcResult(res, computeMatrix(hosts, packs, input.defaultStateOfChargePct));
+    }),
+  ];
 }

@@ -1,12 +1,12 @@
-import { Router } from 'express';
 import { conductorsReference } from './conductors.service.ts';
+import { v1Get, type V1Route } from '../v1-route.ts';
 
 /** GET /v1/reference/conductors: needs a key, not metered. */
-export function conductorsRouter() {
-  const router = Router();
+export function conductorsRoutes(): V1Route[] {
   const body = JSON.stringify(conductorsReference());
-  router.get('/reference/conductors', (_req, res) => {
-    res.type('application/json').send(body);
-  });
-  return router;
+  return [
+    v1Get('/reference/conductors', (_req, res) => {
+      res.type('application/json').send(body);
+    }),
+  ];
 }

@@ -17,6 +17,7 @@ import { and, eq, gt, sql } from 'drizzle-orm';
 import type { Db } from '../../db/client.ts';
 import { idempotencyRecords } from '../../db/schema/index.ts';
 import { AppError } from '../../http/problem.ts';
+import type { ResolvedKey } from '../keys/key-resolver.ts';
 import type { MeterBatcher, MeterResult } from './meter-batcher.ts';
 import { rateLimitHeaders, retryAfterSeconds } from './rate-limit-headers.ts';
 
@@ -50,11 +51,11 @@ export function createMetering(db: Db, batcher: MeterBatcher, hooks: MeteringHoo
 
 function meterCalls(db: Db, batcher: MeterBatcher, hooks: MeteringHooks): RequestHandler {
   return (req, res, next) => {
-    res.locals.sendMetered = async (body: unknown) => {
+    res.locals.sendMetered = (body: unknown) => {
       const key = res.locals.apiKey;
-      if (!key) throw new Error('sendMetered called without an authenticated key');
+      if (!key) return Promise.reject(new Error('sendMetered called without an authenticated key'));
       const idem = res.locals.idempotency;
-      const result: MeterResult = await batcher
+      return batcher
         .enqueue({
           organizationId: key.organizationId,
           apiKeyId: key.id,
@@ -63,12 +64,19 @@ function meterCalls(db: Db, batcher: MeterBatcher, hooks: MeteringHooks): Reques
           ratePerMinuteCalls: key.ratePerMinuteCalls,
           ...(idem ? { idempotency: { key: idem.key, requestHash: idem.requestHash, status: 200, body } } : {}),
         })
-        .catch((error: unknown) => {
-          req.log?.error({ err: error }, 'metering failed');
-          throw new AppError('service-unavailable', 'The call could not be counted, so it was not answered. Retry shortly.', {
-            headers: { 'Retry-After': '1' },
-          });
-        });
+        .then(
+          (result) => answer(result, key, body),
+          (error: unknown) => {
+            req.log?.error({ err: error }, 'metering failed');
+            throw new AppError('service-unavailable', 'The call could not be counted, so it was not answered. Retry shortly.', {
+              headers: { 'Retry-After': '1' },
+            });
+          },
+        );
+    };
+
+    /** Answers a counted call: 200 with the RateLimit headers, or 429, or a stored answer for a duplicate. */
+    const answer = async (result: MeterResult, key: ResolvedKey, body: unknown): Promise<void> => {
       const state = { ...result, monthlyQuotaCalls: key.monthlyQuotaCalls, ratePerMinuteCalls: key.ratePerMinuteCalls, now: new Date() };
       const headers = rateLimitHeaders(state);
       if (result.outcome === 'quota' || result.outcome === 'rate') {
@@ -85,13 +93,19 @@ function meterCalls(db: Db, batcher: MeterBatcher, hooks: MeteringHooks): Reques
       }
       if (result.outcome === 'duplicate') {
         // Another instance stored an answer for this key first: answer with that one, uncounted.
-        await replayStored(db, res, idem!.key, idem!.requestHash);
+        const idem = res.locals.idempotency!;
+        await replayStored(db, res, idem.key, idem.requestHash);
         return;
       }
       hooks.onCounted?.(key.organizationId, result.monthCalls, key.monthlyQuotaCalls, result.monthStart);
+      // The JSON answer written directly (what res.json() would send, without its content negotiation helpers).
+      const json = JSON.stringify(body);
+      res.statusCode = 200;
       res.setHeader('RateLimit-Policy', headers['RateLimit-Policy']!);
       res.setHeader('RateLimit', headers.RateLimit!);
-      res.status(200).json(body);
+      res.setHeader('Content-Type', 'application/json; charset=utf-8');
+      res.setHeader('Content-Length', Buffer.byteLength(json));
+      res.end(json);
     };
     next();
   };
