@@ -86,7 +86,8 @@ export function createApp(deps: AppDeps) {
         res.setHeader('X-Request-Id', id);
         return id;
       },
-      autoLogging: { ignore: (req) => req.url === '/healthz' },
+      // Completed requests are logged at info; below that level they are not even put together.
+      autoLogging: logger.isLevelEnabled('info') ? { ignore: (req) => req.url === '/healthz' } : false,
     }),
   );
   app.use(

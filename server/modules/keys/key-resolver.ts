@@ -1,8 +1,10 @@
 /**
  * Resolves a presented API key to its row and organization limits, with a short per-instance cache
  * (API_KEY_CACHE_TTL_MS, default 3 s): a revoked or expired key stops working on every instance within
- * that time, while a hot key costs one HMAC and one map lookup per call. Unknown keys are cached too
- * (negatively, bounded), so garbage keys cannot turn into one query per request.
+ * that time, while a hot key costs one map lookup per call. Unknown keys are cached too (negatively,
+ * bounded), so garbage keys cannot turn into one query per request. Concurrent lookups of one key share one
+ * query, and a hot key is re-read in the background during the last quarter of its lifetime, so its calls
+ * never wait for the database (an answer is still never older than the TTL).
  */
 import { effectiveLimits, type PlanId } from '#shared/plans.ts';
 import type { Db } from '../../db/client.ts';
@@ -25,6 +27,8 @@ export interface ResolvedKey {
 interface Entry {
   value: ResolvedKey | null;
   fetchedAtMs: number;
+  /** A background re-read has been started for this entry. */
+  refreshing?: boolean;
 }
 
 const MAX_ENTRIES = 10_000;
@@ -37,6 +41,9 @@ export class KeyResolver {
    */
   private recent = new Map<string, Entry>();
   private origins: { value: Set<string>; fetchedAtMs: number } | undefined;
+  private inFlight = new Map<string, Promise<ResolvedKey | null>>();
+  /** Bumped by invalidate(): a read that started before it does not store what it found. */
+  private generation = 0;
 
   constructor(
     private readonly db: Db,
@@ -51,17 +58,40 @@ export class KeyResolver {
    */
   resolveCached(presentedKey: string): ResolvedKey | null | undefined {
     const hit = this.recent.get(presentedKey);
-    return hit && this.clock() - hit.fetchedAtMs < this.ttlMs ? hit.value : undefined;
+    if (!hit) return undefined;
+    const age = this.clock() - hit.fetchedAtMs;
+    if (age >= this.ttlMs) return undefined;
+    if (age >= this.ttlMs * 0.75 && !hit.refreshing) {
+      hit.refreshing = true;
+      // Errors are left to the next lookup after the TTL, which asks the database itself.
+      this.lookup(presentedKey, hashApiKey(presentedKey, this.hashSecret)).catch(() => undefined);
+    }
+    return hit.value;
   }
 
   async resolve(presentedKey: string): Promise<ResolvedKey | null> {
     const hash = hashApiKey(presentedKey, this.hashSecret);
-    const now = this.clock();
     const hit = this.cache.get(hash);
-    if (hit && now - hit.fetchedAtMs < this.ttlMs) {
+    if (hit && this.clock() - hit.fetchedAtMs < this.ttlMs) {
       this.recent.set(presentedKey, hit);
       return hit.value;
     }
+    return this.lookup(presentedKey, hash);
+  }
+
+  /** One database read per key at a time: concurrent callers share it. */
+  private lookup(presentedKey: string, hash: string): Promise<ResolvedKey | null> {
+    let pending = this.inFlight.get(hash);
+    if (!pending) {
+      pending = this.read(presentedKey, hash).finally(() => this.inFlight.delete(hash));
+      this.inFlight.set(hash, pending);
+    }
+    return pending;
+  }
+
+  private async read(presentedKey: string, hash: string): Promise<ResolvedKey | null> {
+    const now = this.clock();
+    const generation = this.generation;
     const row = await findKeyWithOrganizationByHash(this.db, hash);
     // The row was found by its hash; compare again in constant time as the stored-secret check.
     const value: ResolvedKey | null =
@@ -80,6 +110,7 @@ export class KeyResolver {
             })(),
           }
         : null;
+    if (generation !== this.generation) return value;
     if (this.cache.size >= MAX_ENTRIES) this.cache.clear();
     if (this.recent.size >= MAX_ENTRIES) this.recent.clear();
     const entry = { value, fetchedAtMs: now };
@@ -99,6 +130,8 @@ export class KeyResolver {
 
   /** Drops cached entries (after a change made by this instance, so it applies here at once). */
   invalidate(): void {
+    this.generation += 1;
+    this.inFlight.clear();
     this.cache.clear();
     this.recent.clear();
     this.origins = undefined;

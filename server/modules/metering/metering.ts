@@ -99,12 +99,12 @@ function meterCalls(db: Db, batcher: MeterBatcher, hooks: MeteringHooks): Reques
       }
       hooks.onCounted?.(key.organizationId, result.monthCalls, key.monthlyQuotaCalls, result.monthStart);
       // The JSON answer written directly (what res.json() would send, without its content negotiation helpers).
-      const json = JSON.stringify(body);
+      const json = Buffer.from(JSON.stringify(body));
       res.statusCode = 200;
       res.setHeader('RateLimit-Policy', headers['RateLimit-Policy']!);
       res.setHeader('RateLimit', headers.RateLimit!);
       res.setHeader('Content-Type', 'application/json; charset=utf-8');
-      res.setHeader('Content-Length', Buffer.byteLength(json));
+      res.setHeader('Content-Length', json.length);
       res.end(json);
     };
     next();

@@ -45,6 +45,8 @@ export function createQuotaNotifier(deps: { db: Db; mailer: Mailer; logger: Logg
     for (const { email } of recipients) await deps.mailer.send({ to: email, ...mail });
   };
   return (organizationId, monthCalls, monthlyQuotaCalls, monthStart) => {
+    // Below the first threshold (nearly every call) nothing is built.
+    if (monthCalls * 100 < QUOTA_THRESHOLDS_PCT[0] * monthlyQuotaCalls) return;
     const month = monthStart.toISOString().slice(0, 10);
     for (const thresholdPct of QUOTA_THRESHOLDS_PCT) {
       if (monthCalls * 100 < thresholdPct * monthlyQuotaCalls) continue;
