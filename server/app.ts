@@ -111,9 +111,10 @@ export function createApp(deps: AppDeps) {
   app.use(billing.webhookRouter);
   app.use(jsonBody({ limit: env.BODY_LIMIT_BYTES }));
 
+  // The public API first: its calls are the hot path and pass no other router on their way.
+  app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {}, abuse }), abuse.announceFailure);
   app.use(healthRouter(db));
   app.use(problemsRouter());
-  app.use('/v1', v1Router({ db, platform, documentedPaths: openApiDocument.paths ?? {}, abuse }), abuse.announceFailure);
   // The console API: CSRF defence, no-store and the session context for all of it, then the routers.
   // The catalog's CSV upload is multipart, which consoleSecurity refuses: it brings the same defences itself.
   app.use('/console-api', catalogUploadRouter({ env, db }));
