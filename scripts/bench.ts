@@ -10,14 +10,9 @@ import { spawn, spawnSync } from 'node:child_process';
 import { createServer } from 'node:net';
 import { join } from 'node:path';
 import pg from 'pg';
-import { dropDatabase, ensureDatabase, ensurePostgres, repoRoot } from './lib/postgres.ts';
-import { runMigrations } from '../server/db/migrate.ts';
-import { createDb } from '../server/db/client.ts';
-import { seedDemo } from '../server/db/seed.ts';
-import { generateApiKey } from '../server/modules/keys/key-format.ts';
-import { seedDemoApiAccess } from '../server/modules/keys/keys.seed.ts';
+import { dropDatabase, ensurePostgres, repoRoot } from './lib/postgres.ts';
+import { prepareLoadDatabase } from './lib/load-database.ts';
 import { keyHashSecret } from '../server/modules/metering/platform.ts';
-import { parseEnv } from '../server/env.ts';
 
 const durationS = Number(process.env.BENCH_DURATION_S ?? 10);
 const rounds = Number(process.env.BENCH_ROUNDS ?? 3);
@@ -34,17 +29,7 @@ const base = `http://127.0.0.1:${port}`;
 
 const pgHandle = await ensurePostgres({ port: Number(process.env.OHMSTEAD_PG_PORT ?? 54329), log: console.log });
 const dbName = 'ohmstead_bench';
-await dropDatabase(pgHandle, dbName);
-const databaseUrl = await ensureDatabase(pgHandle, dbName);
-await runMigrations(databaseUrl);
-const env = parseEnv({ ...process.env, DATABASE_URL: databaseUrl });
-const serverKey = generateApiKey('server');
-{
-  const { db, pool } = createDb(databaseUrl, { max: 1 });
-  const { organizationId, ownerUserId } = await seedDemo(db);
-  await seedDemoApiAccess(db, { organizationId, ownerUserId, serverKey, hashSecret: keyHashSecret(env), highLimits: true });
-  await pool.end();
-}
+const { databaseUrl, env, serverKey } = await prepareLoadDatabase(pgHandle, dbName);
 
 const server = spawn(process.execPath, ['--import', 'tsx', join(repoRoot, 'server', 'index.ts')], {
   env: { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), LOG_LEVEL: 'warn', OHMSTEAD_KEY_HASH_SECRET: keyHashSecret(env), CONSOLE_DIST_DIR: '.data/no-console' },

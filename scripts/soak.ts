@@ -20,13 +20,8 @@ import { mkdirSync, openSync } from 'node:fs';
 import http from 'node:http';
 import { join } from 'node:path';
 import pg from 'pg';
-import { dropDatabase, ensureDatabase, ensurePostgres, repoRoot, stopPostgres } from './lib/postgres.ts';
-import { runMigrations } from '../server/db/migrate.ts';
-import { createDb } from '../server/db/client.ts';
-import { seedDemo } from '../server/db/seed.ts';
-import { parseEnv } from '../server/env.ts';
-import { generateApiKey } from '../server/modules/keys/key-format.ts';
-import { seedDemoApiAccess } from '../server/modules/keys/keys.seed.ts';
+import { dropDatabase, ensurePostgres, repoRoot, stopPostgres } from './lib/postgres.ts';
+import { prepareLoadDatabase } from './lib/load-database.ts';
 import { keyHashSecret } from '../server/modules/metering/platform.ts';
 
 const durationS = Number(process.env.SOAK_DURATION_S ?? 180);
@@ -43,19 +38,7 @@ let t0 = Date.now();
 // --- database: a cluster of our own, a fresh database, the demo organization with high limits and a key
 const pgHandle = await ensurePostgres({ port: pgPort, cluster: CLUSTER, log: (l) => console.log(l) });
 const dbName = 'ohmstead_soak';
-await dropDatabase(pgHandle, dbName);
-const databaseUrl = await ensureDatabase(pgHandle, dbName);
-await runMigrations(databaseUrl);
-const env = parseEnv({ ...process.env, DATABASE_URL: databaseUrl });
-const serverKey = generateApiKey('server');
-let organizationId = '';
-{
-  const { db, pool } = createDb(databaseUrl, { max: 1 });
-  const seeded = await seedDemo(db);
-  organizationId = seeded.organizationId;
-  await seedDemoApiAccess(db, { organizationId, ownerUserId: seeded.ownerUserId, serverKey, hashSecret: keyHashSecret(env), highLimits: true });
-  await pool.end();
-}
+const { databaseUrl, env, serverKey, organizationId } = await prepareLoadDatabase(pgHandle, dbName);
 const canRestartDb = !process.env.DATABASE_URL;
 
 // --- instances
